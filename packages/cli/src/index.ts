@@ -1,0 +1,2 @@
+export { main, usage, VERSION } from './main.js';
+export type { CliIO } from './io.js';

@@ -1,0 +1,39 @@
+#!/usr/bin/env node
+// Bundles every runnable artifact with esbuild. Sources are TypeScript; packages export their
+// src/ directly and only these bundles ever run under plain Node or VS Code.
+import { build } from 'esbuild';
+import { existsSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { dirname, join } from 'node:path';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '..');
+const watch = process.argv.includes('--watch');
+void watch;
+
+const esmBanner = {
+    js: "import { createRequire as __detentCreateRequire } from 'node:module'; const require = __detentCreateRequire(import.meta.url);",
+};
+
+const targets = [
+    { entry: 'packages/cli/src/entry.ts', outfile: 'packages/cli/dist/detent.mjs', format: 'esm', banner: esmBanner },
+    { entry: 'server/src/main.ts', outfile: 'server/dist/server.mjs', format: 'esm', banner: esmBanner },
+    { entry: 'client/src/extension.ts', outfile: 'client/dist/extension.cjs', format: 'cjs', external: ['vscode'] },
+];
+
+for (const t of targets) {
+    const entry = join(root, t.entry);
+    if (!existsSync(entry)) continue;
+    await build({
+        entryPoints: [entry],
+        outfile: join(root, t.outfile),
+        bundle: true,
+        platform: 'node',
+        target: 'node20',
+        format: t.format,
+        banner: t.banner,
+        external: t.external ?? [],
+        sourcemap: true,
+        logLevel: 'warning',
+        mainFields: ['module', 'main'],
+    });
+}

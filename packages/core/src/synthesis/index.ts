@@ -1,1 +1,2 @@
-export {};
+export * from './encoding.js';
+export * from './types.js';

@@ -113,7 +113,7 @@ export function distance(a: Cube, b: Cube, nvars: number): number {
 
 /** a ⊇ b. */
 export function contains(a: Cube, b: Cube): boolean {
-    for (let w = 0; w < a.length; w++) if ((a[w]! & b[w]!) !== b[w]!) return false;
+    for (let w = 0; w < a.length; w++) if (((a[w]! & b[w]!) >>> 0) !== b[w]!) return false;
     return true;
 }
 

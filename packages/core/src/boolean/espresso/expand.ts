@@ -1,0 +1,260 @@
+/**
+ * EXPAND: grows every cube of a cover into a prime implicant of ON ∪ DC, preferring directions
+ * that swallow other cubes of the cover (which IRREDUNDANT can then drop).
+ *
+ * Two ways to know how far a cube may grow:
+ *  - against the OFF-set (complement of ON ∪ DC, computed once): the "blocking matrix" of the
+ *    cube, one row per OFF cube listing the variables that keep them apart;
+ *  - by containment checks in ON ∪ DC (tautology of a cofactor), when the OFF-set would be
+ *    too large to compute — one-hot style covers have exponentially large complements.
+ */
+import { type Cube, wordMask, wordsFor } from '../cube.js';
+import { coverHasCube, literalBits, popcount32 } from './unate.js';
+
+const LOW = 0x55555555;
+
+export interface ExpandTarget {
+    /** OFF-set cover, or null to expand by containment checks in `care`. */
+    readonly off: readonly Cube[] | null;
+    /** ON ∪ DC. */
+    readonly care: readonly Cube[];
+}
+
+export function cubeLiteralCount(c: Cube, nvars: number): number {
+    let n = 0;
+    for (let w = 0; w < c.length; w++) n += popcount32(literalBits(c[w]!, wordMask(nvars, w)));
+    return n;
+}
+
+/** Expands every cube of f to a prime; cubes swallowed by an earlier prime disappear. */
+export function expand(f: readonly Cube[], nvars: number, target: ExpandTarget): Cube[] {
+    const words = wordsFor(nvars);
+    const masks = new Uint32Array(words);
+    for (let w = 0; w < words; w++) masks[w] = wordMask(nvars, w) & LOW;
+    const lits = f.map((c) => cubeLiteralCount(c, nvars));
+    // Largest cubes first: they are the most likely to become primes that cover others.
+    const order = f.map((_, i) => i).sort((a, b) => lits[a]! - lits[b]! || a - b);
+    const covered = new Uint8Array(f.length);
+    const primes: Cube[] = [];
+    const rowMasks = target.off ? new Uint32Array(target.off.length * words) : null;
+    for (const i of order) {
+        if (covered[i]) continue;
+        covered[i] = 1;
+        const p = target.off
+            ? expandAgainstOff(i, f, covered, target.off, rowMasks!, masks, nvars)
+            : expandByContainment(i, f, covered, target.care, masks, nvars);
+        for (let j = 0; j < f.length; j++) {
+            if (covered[j]) continue;
+            const d = f[j]!;
+            let inside = true;
+            for (let w = 0; w < words; w++) if (((p[w]! & d[w]!) >>> 0) !== d[w]) { inside = false; break; }
+            if (inside) covered[j] = 1;
+        }
+        primes.push(p);
+    }
+    return primes;
+}
+
+/** Low bits of the fields where d has a value the current cube lacks (what supercube raises). */
+function needBits(cur: Cube, d: Cube, w: number, mask: number): number {
+    const diff = d[w]! & ~cur[w]!;
+    return (diff | (diff >>> 1)) & mask;
+}
+
+interface Candidate { readonly j: number; readonly need: number }
+
+function candidatesByDistance(i: number, f: readonly Cube[], covered: Uint8Array, cur: Cube, masks: Uint32Array): Candidate[] {
+    const words = masks.length;
+    const list: Candidate[] = [];
+    for (let j = 0; j < f.length; j++) {
+        if (covered[j] || j === i) continue;
+        const d = f[j]!;
+        let n = 0;
+        for (let w = 0; w < words; w++) n += popcount32(needBits(cur, d, w, masks[w]!));
+        list.push({ j, need: n });
+    }
+    list.sort((a, b) => a.need - b.need || a.j - b.j);
+    return list;
+}
+
+function expandAgainstOff(
+    i: number, f: readonly Cube[], covered: Uint8Array, off: readonly Cube[], rowMask: Uint32Array,
+    masks: Uint32Array, nvars: number,
+): Cube {
+    void nvars;
+    const words = masks.length;
+    const c = f[i]!;
+    const cur = c.slice();
+    const free = new Uint32Array(words);
+    const lowered = new Uint32Array(words);
+    for (let w = 0; w < words; w++) free[w] = (c[w]! ^ (c[w]! >>> 1)) & masks[w]!;
+    const nRows = off.length;
+    let active = new Int32Array(nRows);
+    let nActive = 0;
+    for (let r = 0; r < nRows; r++) {
+        const o = off[r]!;
+        let any = 0;
+        for (let w = 0; w < words; w++) {
+            const x = c[w]! & o[w]!;
+            const m = ~(x | (x >>> 1)) & masks[w]!;
+            rowMask[r * words + w] = m;
+            any |= m;
+        }
+        if (any === 0) throw new Error('expand: a cube of the cover meets the OFF-set');
+        active[nActive++] = r;
+    }
+
+    // Drops rows already kept apart by a lowered variable; a row with one raisable variable left
+    // forces that variable to stay (it becomes lowered).
+    const settleRows = (): void => {
+        let changed = true;
+        while (changed) {
+            changed = false;
+            let k = 0;
+            for (let a = 0; a < nActive; a++) {
+                const r = active[a]!;
+                const base = r * words;
+                let hit = false;
+                for (let w = 0; w < words; w++) if ((rowMask[base + w]! & lowered[w]!) !== 0) { hit = true; break; }
+                if (hit) continue;
+                let count = 0;
+                let bw = -1;
+                let bit = 0;
+                for (let w = 0; w < words && count < 2; w++) {
+                    const y = rowMask[base + w]! & free[w]!;
+                    if (y !== 0) {
+                        count += (y & (y - 1)) === 0 ? 1 : 2;
+                        bw = w;
+                        bit = y;
+                    }
+                }
+                if (count === 0) throw new Error('expand: expansion met the OFF-set');
+                if (count === 1) {
+                    lowered[bw] = (lowered[bw]! | bit) >>> 0;
+                    free[bw] = (free[bw]! & ~bit) >>> 0;
+                    changed = true;
+                    continue;
+                }
+                active[k++] = r;
+            }
+            nActive = k;
+        }
+    };
+    settleRows();
+
+    // Raise towards other cubes of the cover, nearest first, while the result stays off the OFF-set.
+    if (nActive > 0) {
+        const need = new Uint32Array(words);
+        for (const cand of candidatesByDistance(i, f, covered, cur, masks)) {
+            if (nActive === 0) break;
+            const d = f[cand.j]!;
+            let blocked = false;
+            let any = 0;
+            for (let w = 0; w < words; w++) {
+                need[w] = needBits(cur, d, w, masks[w]!);
+                if ((need[w]! & lowered[w]!) !== 0) blocked = true;
+                any |= need[w]!;
+            }
+            if (blocked || any === 0) continue;
+            let feasible = true;
+            for (let a = 0; a < nActive && feasible; a++) {
+                const base = active[a]! * words;
+                let ok = false;
+                for (let w = 0; w < words; w++) if ((rowMask[base + w]! & free[w]! & ~need[w]!) !== 0) { ok = true; break; }
+                if (!ok) feasible = false;
+            }
+            if (!feasible) continue;
+            for (let w = 0; w < words; w++) {
+                free[w] = (free[w]! & ~need[w]!) >>> 0;
+                cur[w] = (cur[w]! | need[w]! | (need[w]! << 1)) >>> 0;
+            }
+            settleRows();
+        }
+    }
+
+    // What is left: keep a small set of variables that separates every remaining OFF cube
+    // (greedy column cover of the blocking matrix), raise everything else.
+    while (nActive > 0) {
+        let bestW = -1;
+        let bestBit = 0;
+        let bestCount = 0;
+        const counts = new Map<number, number>();
+        for (let a = 0; a < nActive; a++) {
+            const base = active[a]! * words;
+            for (let w = 0; w < words; w++) {
+                let y = rowMask[base + w]! & free[w]!;
+                while (y !== 0) {
+                    const b = y & -y;
+                    const key = w * 32 + (31 - Math.clz32(b));
+                    const n = (counts.get(key) ?? 0) + 1;
+                    counts.set(key, n);
+                    if (n > bestCount || (n === bestCount && key < bestW * 32 + (31 - Math.clz32(bestBit)))) {
+                        bestCount = n; bestW = w; bestBit = b;
+                    }
+                    y ^= b;
+                }
+            }
+        }
+        lowered[bestW] = (lowered[bestW]! | bestBit) >>> 0;
+        free[bestW] = (free[bestW]! & ~bestBit) >>> 0;
+        settleRows();
+    }
+    for (let w = 0; w < words; w++) cur[w] = (cur[w]! | free[w]! | (free[w]! << 1)) >>> 0;
+
+    // Make it prime: drop any kept variable whose every OFF row is also separated by another one.
+    const hits = new Int32Array(nRows);
+    for (let r = 0; r < nRows; r++) {
+        let n = 0;
+        for (let w = 0; w < words; w++) n += popcount32(rowMask[r * words + w]! & lowered[w]!);
+        hits[r] = n;
+    }
+    for (let w = 0; w < words; w++) {
+        let y = lowered[w]!;
+        while (y !== 0) {
+            const b = y & -y;
+            y ^= b;
+            let needed = false;
+            for (let r = 0; r < nRows; r++) if ((rowMask[r * words + w]! & b) !== 0 && hits[r] === 1) { needed = true; break; }
+            if (needed) continue;
+            for (let r = 0; r < nRows; r++) if ((rowMask[r * words + w]! & b) !== 0) hits[r]!--;
+            lowered[w] = (lowered[w]! & ~b) >>> 0;
+            cur[w] = (cur[w]! | b | (b << 1)) >>> 0;
+        }
+    }
+    active = new Int32Array(0);
+    return cur;
+}
+
+/** Containment checks made per cube while trying to swallow neighbours (bounds the cost). */
+const MAX_NEIGHBOUR_CHECKS = 24;
+
+function expandByContainment(
+    i: number, f: readonly Cube[], covered: Uint8Array, care: readonly Cube[], masks: Uint32Array, nvars: number,
+): Cube {
+    const words = masks.length;
+    let cur = f[i]!.slice();
+    let checks = 0;
+    for (const cand of candidatesByDistance(i, f, covered, cur, masks)) {
+        if (checks >= MAX_NEIGHBOUR_CHECKS) break;
+        const d = f[cand.j]!;
+        const s = new Uint32Array(words);
+        let grows = false;
+        for (let w = 0; w < words; w++) { s[w] = (cur[w]! | d[w]!) >>> 0; if (s[w] !== cur[w]) grows = true; }
+        if (!grows) continue;
+        checks++;
+        if (coverHasCube(care, s, nvars)) cur = s;
+    }
+    // Raise each remaining literal that can go; one pass yields a prime (a literal that cannot
+    // be raised now cannot be raised after other raises either).
+    for (let w = 0; w < words; w++) {
+        let y = (cur[w]! ^ (cur[w]! >>> 1)) & masks[w]!;
+        while (y !== 0) {
+            const b = y & -y;
+            y ^= b;
+            const s = cur.slice();
+            s[w] = (s[w]! | b | (b << 1)) >>> 0;
+            if (coverHasCube(care, s, nvars)) cur = s;
+        }
+    }
+    return cur;
+}

@@ -1,0 +1,94 @@
+/**
+ * The heuristic minimizer: EXPAND, IRREDUNDANT, then REDUCE / EXPAND / IRREDUNDANT until the
+ * cost stops falling, then LAST_GASP (reduce every cube on its own, expand the reduced cubes
+ * looking for a prime that covers two of them) and round again while that helps.
+ *
+ * Cost is (products, literals), compared in that order.
+ */
+import { type Cube, wordsFor } from '../cube.js';
+import { type ExpandTarget, cubeLiteralCount, expand } from './expand.js';
+import { irredundant } from './irredundant.js';
+import { reduce, reduceCube } from './reduce.js';
+import { complementWithin, singleCubeContainment } from './unate.js';
+
+export interface CoverCost { readonly products: number; readonly literals: number }
+
+export function coverCost(f: readonly Cube[], nvars: number): CoverCost {
+    let literals = 0;
+    for (const c of f) literals += cubeLiteralCount(c, nvars);
+    return { products: f.length, literals };
+}
+
+export function cheaper(a: CoverCost, b: CoverCost): boolean {
+    return a.products < b.products || (a.products === b.products && a.literals < b.literals);
+}
+
+export interface HeuristicOptions {
+    readonly deadline: number;
+    /** Largest OFF-set worth computing; beyond it EXPAND checks containment instead. */
+    readonly maxOffCubes?: number;
+}
+
+export interface HeuristicResult {
+    readonly cover: Cube[];
+    /** ON ∪ DC and, when it was affordable, the OFF-set (reused by the exact step). */
+    readonly target: ExpandTarget;
+}
+
+export function espressoHeuristic(on: readonly Cube[], dc: readonly Cube[], nvars: number, options: HeuristicOptions): HeuristicResult {
+    const words = wordsFor(nvars);
+    let f = singleCubeContainment(on, words);
+    const care = singleCubeContainment([...f, ...dc], words);
+    const maxOff = options.maxOffCubes ?? Math.max(2000, 20 * care.length);
+    const off = complementWithin(care, nvars, maxOff, Math.min(options.deadline, Date.now() + 200));
+    const target: ExpandTarget = { off, care };
+    if (f.length === 0) return { cover: [], target };
+    f = expand(f, nvars, target);
+    f = irredundant(f, dc, nvars);
+    let cost = coverCost(f, nvars);
+    for (;;) {
+        while (Date.now() < options.deadline) {
+            const g = irredundant(expand(reduce(f, dc, nvars), nvars, target), dc, nvars);
+            const gc = coverCost(g, nvars);
+            if (!cheaper(gc, cost)) break;
+            f = g;
+            cost = gc;
+        }
+        if (Date.now() >= options.deadline) break;
+        const g = lastGasp(f, dc, nvars, target);
+        const gc = coverCost(g, nvars);
+        if (!cheaper(gc, cost)) break;
+        f = g;
+        cost = gc;
+    }
+    return { cover: f, target };
+}
+
+/**
+ * Reduce each cube against all the others independently (not in sequence), expand the
+ * reduced cubes among themselves, and keep any new prime that covers at least two of them.
+ */
+export function lastGasp(f: readonly Cube[], dc: readonly Cube[], nvars: number, target: ExpandTarget): Cube[] {
+    const reduced: Cube[] = [];
+    for (let i = 0; i < f.length; i++) {
+        const r = reduceCube(f, i, dc, nvars);
+        if (r === null) continue;
+        let same = true;
+        for (let w = 0; w < r.length; w++) if (r[w] !== f[i]![w]) { same = false; break; }
+        if (!same) reduced.push(r);
+    }
+    if (reduced.length < 2) return [...f];
+    const primes = expand(reduced, nvars, target);
+    const words = wordsFor(nvars);
+    const useful = primes.filter((p) => {
+        let n = 0;
+        for (const r of reduced) {
+            let inside = true;
+            for (let w = 0; w < words; w++) if (((p[w]! & r[w]!) >>> 0) !== r[w]) { inside = false; break; }
+            if (inside && ++n >= 2) return true;
+        }
+        return false;
+    });
+    if (useful.length === 0) return [...f];
+    return irredundant(singleCubeContainment([...f, ...useful], words), dc, nvars);
+}

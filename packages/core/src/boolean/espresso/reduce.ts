@@ -1,0 +1,42 @@
+/**
+ * REDUCE: shrinks every cube to the smallest cube that still covers what only it covers
+ * (its intersection with the complement of the rest of the cover and the don't-cares), so
+ * that the next EXPAND can grow it in a different direction.
+ */
+import type { Cube } from '../cube.js';
+import { cubeLiteralCount } from './expand.js';
+import { complementSupercube, cubeCofactor } from './unate.js';
+
+/** The maximal reduction of f[i] against the other cubes of f and dc, or null when redundant. */
+export function reduceCube(f: readonly Cube[], i: number, dc: readonly Cube[], nvars: number): Cube | null {
+    const c = f[i]!;
+    const cof: Cube[] = [];
+    for (let j = 0; j < f.length; j++) if (j !== i) cubeCofactor([f[j]!], c, nvars, cof);
+    cubeCofactor(dc, c, nvars, cof);
+    const s = complementSupercube(cof, nvars);
+    if (s === null) return null;
+    const r = new Uint32Array(c.length);
+    for (let w = 0; w < c.length; w++) r[w] = c[w]! & s[w]!;
+    return r;
+}
+
+/** Reduces the cubes one after another (largest first), each against the current others. */
+export function reduce(f: readonly Cube[], dc: readonly Cube[], nvars: number): Cube[] {
+    const cur: Cube[] = [...f];
+    const lits = f.map((c) => cubeLiteralCount(c, nvars));
+    const order = f.map((_, i) => i).sort((a, b) => lits[a]! - lits[b]! || a - b);
+    const dropped = new Uint8Array(f.length);
+    for (const i of order) {
+        const live: Cube[] = [];
+        let self = -1;
+        for (let j = 0; j < cur.length; j++) {
+            if (dropped[j]) continue;
+            if (j === i) self = live.length;
+            live.push(cur[j]!);
+        }
+        const r = reduceCube(live, self, dc, nvars);
+        if (r === null) dropped[i] = 1;
+        else cur[i] = r;
+    }
+    return cur.filter((_, i) => !dropped[i]);
+}

@@ -1,0 +1,343 @@
+/**
+ * The unate recursive paradigm, tuned for the minimizer: tautology with unate reduction,
+ * complement with a size budget, and the supercube of a complement (used by REDUCE).
+ *
+ * Cubes follow cube.ts (2 bits per variable, 01 = 0, 10 = 1, 11 = free). Functions never
+ * mutate their arguments.
+ */
+import { type Cube, ONE, ZERO, universe, wordMask, wordsFor } from '../cube.js';
+
+const LOW = 0x55555555;
+
+/** Low bit of every literal (non-free, non-empty) field of word x, restricted to `mask`. */
+export function literalBits(x: number, mask: number): number {
+    return (x ^ (x >>> 1)) & LOW & mask;
+}
+
+export function popcount32(x: number): number {
+    x = x - ((x >>> 1) & 0x55555555);
+    x = (x & 0x33333333) + ((x >>> 2) & 0x33333333);
+    return (((x + (x >>> 4)) & 0x0f0f0f0f) * 0x01010101) >>> 24;
+}
+
+/** Per-variable phase counts of a cover. */
+export interface PhaseCounts {
+    readonly zeros: Int32Array;
+    readonly ones: Int32Array;
+}
+
+export function phaseCounts(f: readonly Cube[], nvars: number): PhaseCounts {
+    const zeros = new Int32Array(nvars);
+    const ones = new Int32Array(nvars);
+    const words = wordsFor(nvars);
+    for (const c of f) {
+        for (let w = 0; w < words; w++) {
+            const x = c[w]!;
+            let lit = literalBits(x, wordMask(nvars, w));
+            while (lit !== 0) {
+                const b = lit & -lit;
+                const pos = 31 - Math.clz32(b);
+                const v = w * 16 + (pos >>> 1);
+                if (((x >>> pos) & 3) === ZERO) zeros[v]!++;
+                else ones[v]!++;
+                lit ^= b;
+            }
+        }
+    }
+    return { zeros, ones };
+}
+
+/** Most binate variable (both phases present, most literals), or -1. */
+export function mostBinate(k: PhaseCounts, nvars: number): number {
+    let best = -1;
+    let bestScore = -1;
+    for (let v = 0; v < nvars; v++) {
+        const z = k.zeros[v]!;
+        const o = k.ones[v]!;
+        if (z > 0 && o > 0) {
+            // Prefer balanced splits among equally frequent variables.
+            const score = (z + o) * 1024 - Math.abs(z - o);
+            if (score > bestScore) { bestScore = score; best = v; }
+        }
+    }
+    return best;
+}
+
+/** Variable with the most literals, or -1 when every cube is universal. */
+export function mostFrequent(k: PhaseCounts, nvars: number): number {
+    let best = -1;
+    let bestScore = 0;
+    for (let v = 0; v < nvars; v++) {
+        const s = k.zeros[v]! + k.ones[v]!;
+        if (s > bestScore) { bestScore = s; best = v; }
+    }
+    return best;
+}
+
+/** Cofactor with respect to the literal (v = value): cubes with v free or equal, v made free. */
+export function literalCofactor(f: readonly Cube[], v: number, value: 0 | 1, nvars: number): Cube[] {
+    void nvars;
+    const want = value === 1 ? ONE : ZERO;
+    const w = v >>> 4;
+    const shift = (v & 15) << 1;
+    const r: Cube[] = [];
+    for (const c of f) {
+        const field = (c[w]! >>> shift) & 3;
+        if (field === 3) r.push(c);
+        else if (field === want) {
+            const k = c.slice();
+            k[w] = (k[w]! | (3 << shift)) >>> 0;
+            r.push(k);
+        }
+    }
+    return r;
+}
+
+/** Cofactor of every cube of f with respect to cube p (cubes disjoint from p dropped). */
+export function cubeCofactor(f: readonly Cube[], p: Cube, nvars: number, out: Cube[] = []): Cube[] {
+    const words = wordsFor(nvars);
+    const litMask = new Uint32Array(words);
+    const masks = new Uint32Array(words);
+    for (let w = 0; w < words; w++) {
+        masks[w] = wordMask(nvars, w);
+        const lit = literalBits(p[w]!, masks[w]!);
+        litMask[w] = (lit | (lit << 1)) >>> 0;
+    }
+    outer: for (const c of f) {
+        for (let w = 0; w < words; w++) {
+            const x = c[w]! & p[w]!;
+            const m = masks[w]! & LOW;
+            if (((x | (x >>> 1)) & m) !== m) continue outer;
+        }
+        const k = new Uint32Array(words);
+        for (let w = 0; w < words; w++) k[w] = (c[w]! | litMask[w]!) >>> 0;
+        out.push(k);
+    }
+    return out;
+}
+
+function isUniverseCube(c: Cube, masks: Uint32Array): boolean {
+    for (let w = 0; w < masks.length; w++) if (c[w] !== masks[w]) return false;
+    return true;
+}
+
+function masksFor(nvars: number): Uint32Array {
+    const words = wordsFor(nvars);
+    const m = new Uint32Array(words);
+    for (let w = 0; w < words; w++) m[w] = wordMask(nvars, w);
+    return m;
+}
+
+function cubeLiterals(c: Cube, masks: Uint32Array): number {
+    let n = 0;
+    for (let w = 0; w < masks.length; w++) n += popcount32(literalBits(c[w]!, masks[w]!));
+    return n;
+}
+
+/** True when the cover contains every minterm of the space. */
+export function isTautology(f: readonly Cube[], nvars: number): boolean {
+    return taut(f, nvars, masksFor(nvars));
+}
+
+function taut(f: readonly Cube[], nvars: number, masks: Uint32Array): boolean {
+    if (f.length === 0) return false;
+    let volume = 0;
+    for (const c of f) {
+        const n = cubeLiterals(c, masks);
+        if (n === 0) return true;
+        volume += 2 ** -n;
+    }
+    // Necessary condition: the cubes together must hold at least 2^n minterms.
+    if (volume < 1 - 1e-9) return false;
+    const k = phaseCounts(f, nvars);
+    // Unate reduction: for a variable that appears in one phase only, F is a tautology iff the
+    // cubes that do not mention it are (F restricted to the other phase).
+    const words = masks.length;
+    const unate = new Uint32Array(words);
+    let anyUnate = false;
+    for (let v = 0; v < nvars; v++) {
+        const z = k.zeros[v]!;
+        const o = k.ones[v]!;
+        if ((z > 0) !== (o > 0)) {
+            unate[v >>> 4]! |= 1 << ((v & 15) << 1);
+            anyUnate = true;
+        }
+    }
+    if (anyUnate) {
+        const g: Cube[] = [];
+        outer: for (const c of f) {
+            for (let w = 0; w < words; w++) if ((literalBits(c[w]!, masks[w]!) & unate[w]!) !== 0) continue outer;
+            g.push(c);
+        }
+        if (g.length < f.length) return taut(g, nvars, masks);
+    }
+    const v = mostBinate(k, nvars);
+    if (v < 0) return false;
+    return taut(literalCofactor(f, v, 0, nvars), nvars, masks) && taut(literalCofactor(f, v, 1, nvars), nvars, masks);
+}
+
+/** True when every minterm of cube c lies in the cover f. */
+export function coverHasCube(f: readonly Cube[], c: Cube, nvars: number): boolean {
+    return isTautology(cubeCofactor(f, c, nvars), nvars);
+}
+
+/**
+ * Supercube of the complement of f (the smallest cube containing every minterm not in f),
+ * or null when f is a tautology.
+ */
+export function complementSupercube(f: readonly Cube[], nvars: number): Cube | null {
+    return sccc(f, nvars, masksFor(nvars));
+}
+
+function sccc(f: readonly Cube[], nvars: number, masks: Uint32Array): Cube | null {
+    if (f.length === 0) return universe(nvars);
+    for (const c of f) if (isUniverseCube(c, masks)) return null;
+    if (f.length === 1) {
+        const c = f[0]!;
+        if (cubeLiterals(c, masks) !== 1) return universe(nvars);
+        // Complement of a single literal is the opposite literal.
+        const r = new Uint32Array(masks.length);
+        for (let w = 0; w < masks.length; w++) {
+            const lit = literalBits(c[w]!, masks[w]!);
+            const litMask = (lit | (lit << 1)) >>> 0;
+            r[w] = ((masks[w]! & ~litMask) | ((~c[w]! & litMask))) >>> 0;
+        }
+        return r;
+    }
+    const k = phaseCounts(f, nvars);
+    let v = mostBinate(k, nvars);
+    if (v < 0) v = mostFrequent(k, nvars);
+    const f0 = literalCofactor(f, v, 0, nvars);
+    const f1 = literalCofactor(f, v, 1, nvars);
+    const s0 = sccc(f0, nvars, masks);
+    if (s0 !== null && isUniverseCube(s0, masks)) {
+        // The result is universal unless the other half is a tautology.
+        if (!taut(f1, nvars, masks)) return s0;
+        const r = s0.slice();
+        setField(r, v, ZERO);
+        return r;
+    }
+    const s1 = sccc(f1, nvars, masks);
+    if (s0 === null && s1 === null) return null;
+    if (s0 === null) { const r = s1!.slice(); setField(r, v, ONE); return r; }
+    if (s1 === null) { const r = s0.slice(); setField(r, v, ZERO); return r; }
+    const r = new Uint32Array(masks.length);
+    for (let w = 0; w < masks.length; w++) r[w] = (s0[w]! | s1[w]!) >>> 0;
+    return r;
+}
+
+function setField(c: Cube, v: number, value: number): void {
+    const w = v >>> 4;
+    const shift = (v & 15) << 1;
+    c[w] = ((c[w]! & ~(3 << shift)) | (value << shift)) >>> 0;
+}
+
+/** Thrown inside the complement recursion when the budget runs out. */
+class BudgetExceeded extends Error {}
+
+/**
+ * Complement of f as a cover, or null when it would exceed `maxCubes` cubes or the deadline
+ * (the complement of a one-hot style cover grows exponentially, so callers need a way out).
+ */
+export function complementWithin(f: readonly Cube[], nvars: number, maxCubes: number, deadline = Infinity): Cube[] | null {
+    const masks = masksFor(nvars);
+    const budget = { left: maxCubes * 8, maxCubes, deadline, calls: 0 };
+    try {
+        const r = compl(f, nvars, masks, budget);
+        return r.length > maxCubes ? null : r;
+    } catch (e) {
+        if (e instanceof BudgetExceeded) return null;
+        throw e;
+    }
+}
+
+interface ComplementBudget { left: number; readonly maxCubes: number; readonly deadline: number; calls: number }
+
+function compl(f: readonly Cube[], nvars: number, masks: Uint32Array, b: ComplementBudget): Cube[] {
+    if ((++b.calls & 255) === 0 && Date.now() > b.deadline) throw new BudgetExceeded();
+    if (f.length === 0) return [universe(nvars)];
+    for (const c of f) if (isUniverseCube(c, masks)) return [];
+    if (f.length === 1) {
+        // De Morgan: one cube per literal, each the opposite literal alone.
+        const c = f[0]!;
+        const r: Cube[] = [];
+        for (let w = 0; w < masks.length; w++) {
+            let lit = literalBits(c[w]!, masks[w]!);
+            while (lit !== 0) {
+                const bit = lit & -lit;
+                const pos = 31 - Math.clz32(bit);
+                const k = universe(nvars);
+                const field = (c[w]! >>> pos) & 3;
+                k[w] = ((k[w]! & ~(3 << pos)) | ((field ^ 3) << pos)) >>> 0;
+                r.push(k);
+                lit ^= bit;
+            }
+        }
+        b.left -= r.length;
+        if (b.left < 0) throw new BudgetExceeded();
+        return r;
+    }
+    const k = phaseCounts(f, nvars);
+    let v = mostBinate(k, nvars);
+    if (v < 0) v = mostFrequent(k, nvars);
+    const c0 = compl(literalCofactor(f, v, 0, nvars), nvars, masks, b);
+    const c1 = compl(literalCofactor(f, v, 1, nvars), nvars, masks, b);
+    const r = mergeHalves(c0, c1, v, masks);
+    b.left -= r.length;
+    if (b.left < 0 || r.length > b.maxCubes) throw new BudgetExceeded();
+    return r;
+}
+
+/**
+ * x'·c0 + x·c1 with lifting: a cube of one half contained in a cube of the other half needs
+ * no literal on x (x'a + xb = a + xb when a ⊆ b).
+ */
+function mergeHalves(c0: Cube[], c1: Cube[], v: number, masks: Uint32Array): Cube[] {
+    const w = v >>> 4;
+    const shift = (v & 15) << 1;
+    const words = masks.length;
+    const containedIn = (a: Cube, list: Cube[]): boolean => {
+        outer: for (const b of list) {
+            for (let i = 0; i < words; i++) if (((a[i]! & b[i]!) >>> 0) !== a[i]) continue outer;
+            return true;
+        }
+        return false;
+    };
+    const small = c0.length * c1.length <= 250_000;
+    const r: Cube[] = [];
+    for (const a of c0) {
+        if (small && containedIn(a, c1)) { r.push(a); continue; }
+        const k = a.slice();
+        k[w] = ((k[w]! & ~(3 << shift)) | (ZERO << shift)) >>> 0;
+        r.push(k);
+    }
+    c1.forEach((b) => {
+        if (small && containedIn(b, c0)) { r.push(b); return; }
+        const k = b.slice();
+        k[w] = ((k[w]! & ~(3 << shift)) | (ONE << shift)) >>> 0;
+        r.push(k);
+    });
+    return singleCubeContainment(r, words);
+}
+
+/** Removes cubes contained in another cube of the list (and duplicates). */
+export function singleCubeContainment(f: readonly Cube[], words: number): Cube[] {
+    if (f.length < 2) return [...f];
+    const size = f.map((c) => {
+        let n = 0;
+        for (let i = 0; i < words; i++) { const x = c[i]!; n += popcount32(x & (x >>> 1) & LOW); }
+        return n;
+    });
+    const order = f.map((_, i) => i).sort((a, b) => size[b]! - size[a]!);
+    const kept: Cube[] = [];
+    outer: for (const i of order) {
+        const c = f[i]!;
+        for (const k of kept) {
+            let inside = true;
+            for (let j = 0; j < words; j++) if (((k[j]! & c[j]!) >>> 0) !== c[j]) { inside = false; break; }
+            if (inside) continue outer;
+        }
+        kept.push(c);
+    }
+    return kept;
+}

@@ -1,0 +1,62 @@
+/**
+ * All prime implicants of a cover, by the recursive (Shannon) method: the primes of
+ * x'·f0 + x·f1 are the maximal cubes among x'·P(f0), x·P(f1) and the pairwise intersections
+ * of P(f0) and P(f1) (which include every prime of f0·f1). A unate cover's primes are its
+ * cubes after single-cube containment.
+ */
+import { type Cube, wordMask, wordsFor } from './cube.js';
+import { literalCofactor, mostBinate, phaseCounts, singleCubeContainment } from './espresso/unate.js';
+
+class TooManyPrimes extends Error {}
+
+/** The primes of f, or null when there are more than `limit` (at any level) or time runs out. */
+export function allPrimes(f: readonly Cube[], nvars: number, limit: number, deadline = Infinity): Cube[] | null {
+    const words = wordsFor(nvars);
+    const masks = new Uint32Array(words);
+    for (let w = 0; w < words; w++) masks[w] = wordMask(nvars, w);
+    try {
+        return primesOf(singleCubeContainment(f, words), nvars, masks, { limit, deadline, calls: 0 });
+    } catch (e) {
+        if (e instanceof TooManyPrimes) return null;
+        throw e;
+    }
+}
+
+interface PrimeBudget { readonly limit: number; readonly deadline: number; calls: number }
+
+function primesOf(f: Cube[], nvars: number, masks: Uint32Array, b: PrimeBudget): Cube[] {
+    if ((++b.calls & 63) === 0 && Date.now() > b.deadline) throw new TooManyPrimes();
+    const words = masks.length;
+    if (f.length <= 1) return f;
+    for (const c of f) {
+        let u = true;
+        for (let w = 0; w < words; w++) if (c[w] !== masks[w]) { u = false; break; }
+        if (u) return [c];
+    }
+    const k = phaseCounts(f, nvars);
+    const v = mostBinate(k, nvars);
+    if (v < 0) return f;
+    const p0 = primesOf(singleCubeContainment(literalCofactor(f, v, 0, nvars), words), nvars, masks, b);
+    const p1 = primesOf(singleCubeContainment(literalCofactor(f, v, 1, nvars), words), nvars, masks, b);
+    if (p0.length * p1.length > b.limit * 40) throw new TooManyPrimes();
+    const w = v >>> 4;
+    const shift = (v & 15) << 1;
+    const low = 0x55555555;
+    const cand: Cube[] = [];
+    for (const a of p0) for (const c of p1) {
+        const r = new Uint32Array(words);
+        let ok = true;
+        for (let i = 0; i < words; i++) {
+            const x = a[i]! & c[i]!;
+            const m = masks[i]! & low;
+            if (((x | (x >>> 1)) & m) !== m) { ok = false; break; }
+            r[i] = x;
+        }
+        if (ok) cand.push(r);
+    }
+    for (const a of p0) { const r = a.slice(); r[w] = (r[w]! & ~(2 << shift)) >>> 0; cand.push(r); }
+    for (const c of p1) { const r = c.slice(); r[w] = (r[w]! & ~(1 << shift)) >>> 0; cand.push(r); }
+    const r = singleCubeContainment(cand, words);
+    if (r.length > b.limit) throw new TooManyPrimes();
+    return r;
+}

@@ -20,9 +20,13 @@ const targets = [
     { entry: 'client/src/extension.ts', outfile: 'client/dist/extension.cjs', format: 'cjs', external: ['vscode'] },
 ];
 
+// Optional target filter, e.g. `node scripts/build.mjs client` (matches the entry path's first folder).
+const only = process.argv.slice(2).filter((a) => !a.startsWith('--'));
+
 for (const t of targets) {
     const entry = join(root, t.entry);
     if (!existsSync(entry)) continue;
+    if (only.length > 0 && !only.some((o) => t.entry.startsWith(`${o}/`) || t.entry.startsWith(`packages/${o}/`))) continue;
     await build({
         entryPoints: [entry],
         outfile: join(root, t.outfile),

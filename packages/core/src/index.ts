@@ -1,6 +1,7 @@
 export * from './model/machine.js';
 export * from './model/variables.js';
 export * from './model/finding.js';
+export * from './model/reserved.js';
 export * from './boolean/cube.js';
 export * from './boolean/cover.js';
 export * from './boolean/guard.js';

@@ -69,3 +69,16 @@ export interface DetentSettings {
     /** Per-code severity overrides: code → 'error' | 'warning' | 'info' | 'hint' | 'off'. */
     severity: Record<string, string>;
 }
+
+/**
+ * Client-side commands the server's code lenses invoke (the extension registers them). Every
+ * command takes one argument object: `LensCommandArgs`.
+ */
+export const SHOW_EQUATIONS_COMMAND = 'detent.showEquations';
+export const COMPARE_ENCODINGS_COMMAND = 'detent.compareEncodings';
+export const EXPORT_COMMAND = 'detent.export';
+export const RUN_SCENARIO_COMMAND = 'detent.runScenario';
+export interface LensCommandArgs { uri: string; machine: string; scenario?: string }
+
+/** `Diagnostic.data` of Detent diagnostics: the finding's subject and witness (for hovers and quick fixes). */
+export interface DiagnosticData { state?: string; signal?: string; witness?: unknown }

@@ -29,6 +29,15 @@ export interface RandomMachineOptions {
     readonly maxStates?: number;
     /** Number of 1-bit inputs (range). */
     readonly maxBitInputs?: number;
+    /** Lower end of the number of 1-bit inputs. Default 0. */
+    readonly minBitInputs?: number;
+    /** Lower end of the number of buses. Default 0. */
+    readonly minBuses?: number;
+    /** Lower end of each bus width. Default 2. */
+    readonly minBusWidth?: number;
+    /** Number of transitions per state (range). Default 0..3. */
+    readonly minTransitions?: number;
+    readonly maxTransitions?: number;
     /** Number of bus inputs (range 0..maxBuses), each 2..maxBusWidth bits. */
     readonly maxBuses?: number;
     readonly maxBusWidth?: number;
@@ -158,10 +167,10 @@ function randomEmits(rng: Rng, outputs: readonly Output[], allowRegistered: bool
 export function randomMachine(rng: Rng, options: RandomMachineOptions = {}, name = 'Random'): Machine {
     const nStates = int(rng, options.minStates ?? 1, options.maxStates ?? 6);
     const inputs: Input[] = [];
-    const nBits = int(rng, 0, options.maxBitInputs ?? 3);
+    const nBits = int(rng, options.minBitInputs ?? 0, options.maxBitInputs ?? 3);
     for (let i = 0; i < nBits; i++) inputs.push({ name: `in${i}`, width: 1, isBus: false, async: chance(rng, 0.1), range: nextRange(), nameRange: nextRange() });
-    const nBuses = int(rng, 0, options.maxBuses ?? 1);
-    for (let i = 0; i < nBuses; i++) inputs.push({ name: `bus${i}`, width: int(rng, 2, options.maxBusWidth ?? 3), isBus: true, async: false, range: nextRange(), nameRange: nextRange() });
+    const nBuses = int(rng, options.minBuses ?? 0, options.maxBuses ?? 1);
+    for (let i = 0; i < nBuses; i++) inputs.push({ name: `bus${i}`, width: int(rng, options.minBusWidth ?? 2, options.maxBusWidth ?? 3), isBus: true, async: false, range: nextRange(), nameRange: nextRange() });
     const outputs: Output[] = [];
     const nOut = int(rng, 0, options.maxOutputs ?? 3);
     for (let i = 0; i < nOut; i++) {
@@ -174,7 +183,7 @@ export function randomMachine(rng: Rng, options: RandomMachineOptions = {}, name
         const priority = chance(rng, options.priorityRate ?? 0.3);
         const moore = randomEmits(rng, outputs, true);
         const mooreSet = new Set(moore.map((e) => e.output));
-        const nTrans = int(rng, 0, 3);
+        const nTrans = int(rng, options.minTransitions ?? 0, options.maxTransitions ?? 3);
         let guards: Guard[];
         let uncovered = true;
         if (priority || options.disjointPlainGuards === false) {

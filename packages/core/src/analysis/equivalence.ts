@@ -1,0 +1,115 @@
+/**
+ * `equivalent`: states no input sequence can tell apart, by partition refinement.
+ *
+ * Observable behaviour of a state for one input: the output vector (Moore overlaid with Mealy)
+ * and the class of the next state. Each state's regions (space.ts) partition the input space,
+ * so two states behave alike for the current partition exactly when every pair of
+ * intersecting regions agrees on both — a cube-intersection test, no enumeration. To avoid
+ * comparing every pair, states are first bucketed by a fingerprint: their behaviour at a fixed
+ * set of sample inputs (all inputs when there are at most 64), which equal behaviours share.
+ *
+ * A state whose `otherwise dontcare` covers some input is incompletely specified; it is kept in
+ * a class of its own, so every reported pair is equivalent under any completion.
+ */
+import type { Machine } from '../model/machine.js';
+import { type Finding, finding } from '../model/finding.js';
+import { type Cube, intersects, mintermCube } from '../boolean/cube.js';
+import { coversIntersect } from '../boolean/cover.js';
+import type { MachineSpace } from './space.js';
+
+const MAX_SAMPLES = 64;
+
+/** Deterministic sample minterms: every minterm for small spaces, otherwise a fixed pseudo-random set. */
+function sampleMinterms(nvars: number): { cubes: Cube[]; exhaustive: boolean } {
+    if (nvars <= 6) {
+        const cubes: Cube[] = [];
+        for (let m = 0; m < 2 ** nvars; m++) cubes.push(mintermCube(nvars, (v) => ((m >>> v) & 1) as 0 | 1));
+        return { cubes, exhaustive: true };
+    }
+    let seed = 0x9e3779b9;
+    const next = () => { seed = (Math.imul(seed ^ (seed >>> 15), 0x2c1b3c6d) + 0x6d2b79f5) >>> 0; return seed; };
+    const cubes: Cube[] = [mintermCube(nvars, () => 0), mintermCube(nvars, () => 1)];
+    while (cubes.length < MAX_SAMPLES) {
+        const words = Array.from({ length: Math.ceil(nvars / 32) }, next);
+        cubes.push(mintermCube(nvars, (v) => ((words[v >>> 5]! >>> (v & 31)) & 1) as 0 | 1));
+    }
+    return { cubes, exhaustive: false };
+}
+
+/** Final class of every state (class ids numbered by first member in declaration order). */
+export function equivalenceClasses(machine: Machine, space: MachineSpace): Int32Array {
+    const n = machine.states.length;
+    const nvars = space.ctx.nvars;
+    const { cubes: samples, exhaustive } = sampleMinterms(nvars);
+    // Region index of every state at every sample.
+    const at: Int32Array[] = space.states.map((st) => {
+        const idx = new Int32Array(samples.length);
+        samples.forEach((m, k) => {
+            idx[k] = st.regions.findIndex((r) => r.cover.some((c) => intersects(c, m, nvars)));
+        });
+        return idx;
+    });
+    let cls = new Int32Array(n);
+    let count = 1;
+    let special = 0;
+    space.states.forEach((st, s) => { if (st.dontcare) { cls[s] = -1 - special++; } });
+    count = special + (space.states.some((st) => !st.dontcare) ? 1 : 0);
+
+    const sameStep = (a: number, b: number, c: Int32Array): boolean => {
+        for (const ra of space.states[a]!.regions) for (const rb of space.states[b]!.regions) {
+            if (ra.outputs === rb.outputs && c[ra.target] === c[rb.target]) continue;
+            if (coversIntersect(ra.cover, rb.cover, nvars)) return false;
+        }
+        return true;
+    };
+
+    for (;;) {
+        const buckets = new Map<string, number[]>();
+        for (let s = 0; s < n; s++) {
+            const regions = space.states[s]!.regions;
+            const parts: number[] = [cls[s]!];
+            const idx = at[s]!;
+            for (let k = 0; k < idx.length; k++) {
+                const r = regions[idx[k]!]!;
+                parts.push(r.outputs, cls[r.target]!);
+            }
+            const key = parts.join(',');
+            const b = buckets.get(key);
+            if (b) b.push(s); else buckets.set(key, [s]);
+        }
+        const next = new Int32Array(n);
+        let fresh = 0;
+        for (const members of buckets.values()) {
+            // Buckets are visited in order of their first member, so ids follow declaration order.
+            const reps: number[] = [];
+            const repClass: number[] = [];
+            for (const s of members) {
+                let found = -1;
+                if (exhaustive) found = reps.length > 0 ? 0 : -1;
+                else for (let r = 0; r < reps.length; r++) if (sameStep(reps[r]!, s, cls)) { found = r; break; }
+                if (found < 0) { reps.push(s); repClass.push(fresh++); found = reps.length - 1; }
+                next[s] = repClass[found]!;
+            }
+        }
+        cls = next;
+        if (fresh === count) break;
+        count = fresh;
+    }
+    return cls;
+}
+
+export function equivalenceFindings(machine: Machine, space: MachineSpace): Finding[] {
+    const cls = equivalenceClasses(machine, space);
+    const first = new Map<number, number>();
+    const out: Finding[] = [];
+    machine.states.forEach((state, s) => {
+        const c = cls[s]!;
+        const p = first.get(c);
+        if (p === undefined) { first.set(c, s); return; }
+        const partner = machine.states[p]!;
+        out.push(finding('equivalent',
+            `equivalent: state '${state.name}' cannot be told apart from state '${partner.name}' by any input sequence (same outputs, equivalent next states); the two can be merged`,
+            state.nameRange, { state: state.name, related: [{ message: `equivalent state '${partner.name}'`, range: partner.nameRange }] }));
+    });
+    return out;
+}

@@ -47,4 +47,10 @@ export interface SynthesisResult {
     readonly inputCount: number;
     readonly equations: readonly Equation[];
     readonly cost: Cost;
+    /** Flip-flops of registered output bits (included in `cost.flipflops`, see docs/decisions.md). */
+    readonly outputFlipflops?: number;
+    /** Whether unused codes are don't-cares ('dontcare'), go to the `recover` state ('recover'), or — one-hot/one-cold structured logic — are left to the hot-bit terms ('structural'). */
+    readonly unusedCodes?: 'dontcare' | 'recover' | 'structural';
+    /** Things the user should know about this result (minimizer fallbacks, S·R repairs, search limits). */
+    readonly notes?: readonly string[];
 }

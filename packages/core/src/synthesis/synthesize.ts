@@ -1,0 +1,340 @@
+/**
+ * Synthesis: next-state table → excitation and output equations, minimized, with cost.
+ *
+ * Two ways of building the covers:
+ * - flat (binary, gray, johnson, explicit, auto): every used state is its full code cube; unused
+ *   codes are don't-cares (or, with `recover -> S`, specified: next code S, outputs 0); each
+ *   equation is minimized once over inputs and state bits.
+ * - structured (one-hot, one-cold without `recover`): a legal code is identified by its single hot
+ *   (cold) bit, so state s's terms carry only the literal q_s (q_s'); the minimizer gets only the
+ *   input side of each state, which keeps 64-state machines fast. Illegal codes then behave as
+ *   the OR of the terms of their hot bits (see docs/decisions.md).
+ */
+import type { EncodingKind, FlipFlopKind, Machine } from '../model/machine.js';
+import {
+    type Cube, ONE, ZERO, FREE, getVar, intersect, setVarInPlace, universe, withVar,
+} from '../boolean/cube.js';
+import {
+    complement, coverContainsCover, coverDifference, coversIntersect, removeContained, tautology,
+} from '../boolean/cover.js';
+import { minimize } from '../boolean/minimize.js';
+import { type BehaviourTable, type BitValue, behaviourTable } from './behaviour.js';
+import { type StateAssignment, fixedAssignment } from './encoding.js';
+import { excitationInputs, excitationValue } from './excitation.js';
+import { networkCost } from './cost.js';
+import type { Equation, SynthesisResult } from './types.js';
+
+export interface SynthesisOptions {
+    /** Overrides the machine's `encoding`. */
+    readonly encoding?: EncodingKind;
+    /** Overrides the machine's `flipflop`. */
+    readonly flipflop?: FlipFlopKind;
+    /** Count a product used by several equations once (multiple-output sharing). Default false. */
+    readonly share?: boolean;
+    /** Time budget for the `auto` search, in milliseconds (default 1000). */
+    readonly budgetMs?: number;
+    /** Budget per minimizer call, in milliseconds. */
+    readonly minimizeBudgetMs?: number;
+    /** Treat `recover` as absent (used to report what recovery costs). */
+    readonly ignoreRecover?: boolean;
+}
+
+/** A region of the code space with one specified behaviour per input piece. */
+interface Region {
+    /** State-bit literals of the region (input variables free). */
+    readonly cube: Cube;
+    /** The code the region stands for (bit i = q_i), when it stands for one code. */
+    readonly assumed?: readonly (0 | 1)[];
+    readonly pieces: readonly RegionPiece[];
+}
+
+interface RegionPiece {
+    readonly inputs: readonly Cube[];
+    /** Next code (bit i = q_i), or 'x'. */
+    readonly next: readonly (0 | 1)[] | 'x';
+    /** Every output bit: combinational value, or for registered bits the D input (Moore value of the next state). */
+    readonly outputs: readonly BitValue[];
+}
+
+interface EquationSpec {
+    readonly name: string;
+    readonly role: Equation['role'];
+    readonly stateBit?: number;
+    readonly port?: number;
+    readonly output?: number;
+    readonly outputBit?: number;
+    /** Index into the output bits. */
+    readonly flatOutput?: number;
+}
+
+/** Codes as bit arrays, bit i = q_i (codes are written MSB first). */
+export function codeBits(code: string): (0 | 1)[] {
+    const bits: (0 | 1)[] = [];
+    for (let i = 0; i < code.length; i++) bits.push(code[code.length - 1 - i] === '1' ? 1 : 0);
+    return bits;
+}
+
+function stateCube(bits: readonly (0 | 1)[], inputCount: number, nvars: number): Cube {
+    const c = universe(nvars);
+    bits.forEach((b, i) => setVarInPlace(c, inputCount + i, b === 1 ? ONE : ZERO));
+    return c;
+}
+
+function and(a: Cube, b: Cube, nvars: number): Cube | null {
+    return intersect(a, b, nvars);
+}
+
+function cubesAnd(cover: readonly Cube[], c: Cube, nvars: number): Cube[] {
+    const r: Cube[] = [];
+    for (const a of cover) {
+        const x = and(a, c, nvars);
+        if (x) r.push(x);
+    }
+    return r;
+}
+
+/** Illegal codes of one-hot (polarity 1) or one-cold (polarity 0) as cubes: none hot, or two hot. */
+function illegalHotCubes(width: number, inputCount: number, nvars: number, hot: 0 | 1): Cube[] {
+    const cold = hot === 1 ? ZERO : ONE;
+    const hotField = hot === 1 ? ONE : ZERO;
+    const none = universe(nvars);
+    for (let i = 0; i < width; i++) setVarInPlace(none, inputCount + i, cold);
+    const cubes: Cube[] = [none];
+    for (let a = 0; a < width; a++) for (let b = a + 1; b < width; b++) {
+        const c = universe(nvars);
+        setVarInPlace(c, inputCount + a, hotField);
+        setVarInPlace(c, inputCount + b, hotField);
+        cubes.push(c);
+    }
+    return cubes;
+}
+
+/** Everything synthesis needs that does not depend on the state assignment (reused by the auto search). */
+export interface SynthesisContext {
+    readonly machine: Machine;
+    readonly table: BehaviourTable;
+    /** Number of cube variables the table was built with. */
+    readonly nvars: number;
+}
+
+export function synthesisContext(machine: Machine, width: number): SynthesisContext {
+    const inputCount = machine.inputs.reduce((a, i) => a + i.width, 0);
+    const nvars = inputCount + width;
+    return { machine, table: behaviourTable(machine, nvars), nvars };
+}
+
+export interface CodesOptions {
+    readonly share?: boolean;
+    readonly minimizeBudgetMs?: number;
+    readonly ignoreRecover?: boolean;
+}
+
+/** Synthesizes the machine under a given assignment (the core of `synthesize` and of the auto search). */
+export function synthesizeWithAssignment(ctx: SynthesisContext, assignment: StateAssignment, flipflop: FlipFlopKind, options: CodesOptions = {}): SynthesisResult {
+    const { machine, table, nvars } = ctx;
+    const width = assignment.width;
+    const inputCount = table.inputCount;
+    if (inputCount + width !== nvars) throw new Error('synthesis: context built for another width');
+    const recover = options.ignoreRecover ? undefined : machine.recover;
+    const hotPolarity: 0 | 1 | undefined = assignment.encoding === 'onehot' ? 1 : assignment.encoding === 'onecold' ? 0 : undefined;
+    const structured = hotPolarity !== undefined && width === machine.states.length && width > 1;
+    const codes = assignment.codes.map(codeBits);
+    const notes: string[] = [];
+
+    // Regions of the code space.
+    const regions: Region[] = [];
+    const bitsOut = table.outputBits;
+    const registeredOf = (target: number | 'x'): BitValue[] =>
+        bitsOut.map((b, k) => (target === 'x' ? 'x' : b.registered ? table.states[target]!.moore[k]! : 0));
+    table.states.forEach((st, s) => {
+        const code = codes[s]!;
+        let cube: Cube;
+        if (structured && !recover) {
+            cube = universe(nvars);
+            setVarInPlace(cube, inputCount + s, hotPolarity === 1 ? ONE : ZERO);
+        } else {
+            cube = stateCube(code, inputCount, nvars);
+        }
+        const pieces: RegionPiece[] = st.pieces.map((p) => {
+            const reg = registeredOf(p.target);
+            return {
+                inputs: p.inputs,
+                next: p.target === 'x' ? 'x' : codes[p.target]!,
+                outputs: bitsOut.map((b, k) => (b.registered ? reg[k]! : p.outputs[k]!)),
+            };
+        });
+        regions.push({ cube, assumed: code, pieces });
+    });
+    let unusedDontCare: Cube[] = [];
+    let unusedCodes: SynthesisResult['unusedCodes'];
+    const usedCount = new Set(assignment.codes).size;
+    const hasUnused = 2 ** width > usedCount;
+    if (!hasUnused) {
+        unusedCodes = 'dontcare';
+    } else if (recover) {
+        unusedCodes = 'recover';
+        const unused = structured
+            ? illegalHotCubes(width, inputCount, nvars, hotPolarity!)
+            : complement(regions.map((r) => r.cube), nvars);
+        const reg = registeredOf(recover.target);
+        const piece: RegionPiece = {
+            inputs: [universe(nvars)],
+            next: codes[recover.target]!,
+            outputs: bitsOut.map((b, k) => (b.registered ? reg[k]! : 0)),
+        };
+        for (const cube of unused) regions.push({ cube, pieces: [piece] });
+    } else if (structured) {
+        unusedCodes = 'structural';
+    } else {
+        unusedCodes = 'dontcare';
+        unusedDontCare = complement(regions.map((r) => r.cube), nvars);
+    }
+
+    // Equation list.
+    const specs: EquationSpec[] = [];
+    const ports = excitationInputs(flipflop);
+    for (let i = 0; i < width; i++) ports.forEach((p, port) => specs.push({ name: `${p}${i}`, role: 'excitation', stateBit: i, port }));
+    bitsOut.forEach((b, k) => specs.push({
+        name: b.name, role: b.registered ? 'registered-output' : 'output', output: b.output, outputBit: b.bit, flatOutput: k,
+    }));
+
+    // Per equation: groups (one per region, split on q_i where the region leaves it open).
+    const equations: Equation[] = [];
+    const onOf = new Map<string, Cube[]>();
+    const dcOf = new Map<string, Cube[]>();
+    for (const spec of specs) {
+        interface Group { cube: Cube; on: Cube[]; dc: Cube[]; q?: 0 | 1 }
+        const groups: Group[] = [];
+        for (const region of regions) {
+            const variants: { cube: Cube; q?: 0 | 1 }[] = [];
+            if (spec.stateBit !== undefined) {
+                const i = spec.stateBit;
+                const known = region.assumed?.[i];
+                const field = getVar(region.cube, inputCount + i);
+                if (known !== undefined) variants.push({ cube: region.cube, q: known });
+                else if (field !== FREE) variants.push({ cube: region.cube, q: field === ONE ? 1 : 0 });
+                else {
+                    variants.push({ cube: withVar(region.cube, inputCount + i, ZERO), q: 0 });
+                    variants.push({ cube: withVar(region.cube, inputCount + i, ONE), q: 1 });
+                }
+            } else {
+                variants.push({ cube: region.cube });
+            }
+            for (const variant of variants) {
+                const g: Group = { cube: variant.cube, on: [], dc: [], q: variant.q };
+                for (const piece of region.pieces) {
+                    let v: BitValue;
+                    if (spec.stateBit !== undefined) {
+                        v = piece.next === 'x' ? 'x' : excitationValue(flipflop, spec.port!, variant.q!, piece.next[spec.stateBit]!);
+                    } else {
+                        v = piece.outputs[spec.flatOutput!]!;
+                    }
+                    if (v === 1) g.on.push(...piece.inputs);
+                    else if (v === 'x') g.dc.push(...piece.inputs);
+                }
+                if (g.on.length > 0 || g.dc.length > 0) groups.push(g);
+            }
+        }
+        let cover: Cube[];
+        let exact = true;
+        const on: Cube[] = [];
+        const dc: Cube[] = [];
+        if (structured) {
+            cover = [];
+            for (const g of groups) {
+                if (g.on.length === 0) continue;
+                const inputOn = removeContained(g.on);
+                const inputDc = removeContained(g.dc);
+                let inputCover: Cube[];
+                if (tautology(inputOn, nvars)) inputCover = [universe(nvars)];
+                else {
+                    const m = minimize(inputOn, inputDc, nvars, { budgetMs: options.minimizeBudgetMs });
+                    exact &&= m.exact;
+                    inputCover = verified(m.cover, inputOn, inputDc, nvars) ? m.cover : inputOn;
+                }
+                let stateLits = g.cube;
+                // S·R = 0 on every code, legal or not: S products carry q_i', R products q_i
+                // (hot-bit terms alone would let an illegal code assert both).
+                if (flipflop === 'SR' && spec.stateBit !== undefined && g.q !== undefined) {
+                    stateLits = withVar(stateLits, inputCount + spec.stateBit, g.q === 1 ? ONE : ZERO);
+                }
+                cover.push(...cubesAnd(inputCover, stateLits, nvars));
+            }
+            cover = removeContained(cover);
+        } else {
+            for (const g of groups) {
+                on.push(...cubesAnd(g.on, g.cube, nvars));
+                dc.push(...cubesAnd(g.dc, g.cube, nvars));
+            }
+            dc.push(...unusedDontCare);
+            const onCover = removeContained(on);
+            const dcCover = removeContained(dc);
+            if (onCover.length === 0) cover = [];
+            else if (tautology(onCover, nvars)) cover = [universe(nvars)];
+            else {
+                const m = minimize(onCover, dcCover, nvars, { budgetMs: options.minimizeBudgetMs });
+                exact = m.exact;
+                if (verified(m.cover, onCover, dcCover, nvars)) cover = m.cover;
+                else {
+                    cover = onCover;
+                    exact = false;
+                    notes.push(`${spec.name}: the minimizer's cover did not match the specification; the unminimized cover is used`);
+                }
+            }
+            onOf.set(spec.name, onCover);
+            dcOf.set(spec.name, dcCover);
+        }
+        equations.push({
+            name: spec.name, role: spec.role, stateBit: spec.stateBit, output: spec.output, outputBit: spec.outputBit, cover, exact,
+        });
+    }
+
+    if (flipflop === 'SR' && !structured) repairSetReset(equations, onOf, dcOf, nvars, width, options, notes);
+
+    const outputFlipflops = bitsOut.filter((b) => b.registered).length;
+    const cost = networkCost(equations.map((e) => e.cover), nvars, width + outputFlipflops, options.share ?? false);
+    const variables = [...table.inputNames, ...Array.from({ length: width }, (_, i) => `q${i}`)];
+    return {
+        machine, assignment, flipflop, variables, inputCount, equations, cost, outputFlipflops, unusedCodes, notes,
+    };
+}
+
+/** The minimizer's cover must contain the ON-set and stay inside ON ∪ DC (a guard against minimizer bugs). */
+function verified(cover: readonly Cube[], on: readonly Cube[], dc: readonly Cube[], nvars: number): boolean {
+    if (!coverContainsCover(cover, on, nvars)) return false;
+    return coverContainsCover([...on, ...dc], cover, nvars);
+}
+
+/**
+ * S and R are never both 1 (LANGUAGE.md). Don't-care choices can make them overlap on unused codes
+ * or excitation don't-cares; then S is re-minimized with R's cover taken out of its don't-cares
+ * (ON_S lies in R's OFF-set, so the result is disjoint from R). Falls back to the ON-sets.
+ */
+function repairSetReset(equations: Equation[], onOf: Map<string, Cube[]>, dcOf: Map<string, Cube[]>, nvars: number, width: number, options: CodesOptions, notes: string[]): void {
+    for (let i = 0; i < width; i++) {
+        const si = equations.findIndex((e) => e.name === `s${i}`);
+        const ri = equations.findIndex((e) => e.name === `r${i}`);
+        const s = equations[si]!;
+        const r = equations[ri]!;
+        if (!coversIntersect(s.cover, r.cover, nvars)) continue;
+        const onS = onOf.get(s.name)!;
+        const dcS = coverDifference(dcOf.get(s.name)!, r.cover, nvars);
+        let cover = onS.length === 0 ? [] : minimize(onS, dcS, nvars, { budgetMs: options.minimizeBudgetMs }).cover;
+        if (!verified(cover, onS, dcS, nvars) || coversIntersect(cover, r.cover, nvars)) {
+            cover = onS;
+            equations[ri] = { ...r, cover: onOf.get(r.name)!, exact: false };
+        }
+        equations[si] = { ...s, cover, exact: false };
+        notes.push(`s${i}/r${i}: don't-care choices overlapped; S was re-minimized so that S·R = 0`);
+    }
+}
+
+/**
+ * Synthesizes a machine. `auto` runs the state-assignment search (auto-encoding.ts); every other
+ * encoding uses the fixed codes of encoding.ts.
+ */
+export function synthesizeFixed(machine: Machine, encoding: Exclude<EncodingKind, 'auto'>, flipflop: FlipFlopKind, options: CodesOptions = {}): SynthesisResult | undefined {
+    const assignment = fixedAssignment(machine, encoding);
+    if (!assignment) return undefined;
+    return synthesizeWithAssignment(synthesisContext(machine, assignment.width), assignment, flipflop, options);
+}

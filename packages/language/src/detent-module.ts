@@ -19,7 +19,7 @@ import { DetentGeneratedModule, DetentGeneratedSharedModule } from './generated/
 import { DetentScopeComputation } from './services/scope-computation.js';
 import { createDetentParser } from './services/parser.js';
 import { DetentDocumentValidator } from './validation/document-validator.js';
-import { DetentLspFeatureModule } from './lsp/feature-module.js';
+import { DetentLspFeatureModule, DetentLspSharedModule, type DetentLspAddedServices } from './lsp/feature-module.js';
 
 /** Services Detent adds to Langium's. */
 export interface DetentAddedServices {
@@ -29,7 +29,7 @@ export interface DetentAddedServices {
     };
 }
 
-export type DetentServices = LangiumServices & DetentAddedServices;
+export type DetentServices = LangiumServices & DetentAddedServices & DetentLspAddedServices;
 export type DetentCoreServices = LangiumCoreServices & DetentAddedServices;
 
 /** Language services used by both the CLI (core) and the editor (LSP) setups. */
@@ -53,7 +53,7 @@ export function createDetentServices(
     context: DefaultSharedModuleContext,
     ...extra: Module<DetentServices, PartialLangiumServices>[]
 ): { shared: LangiumSharedServices; Detent: DetentServices } {
-    const shared = inject(createDefaultSharedModule(context), DetentGeneratedSharedModule);
+    const shared = inject(createDefaultSharedModule(context), DetentGeneratedSharedModule, DetentLspSharedModule);
     const Detent = inject(
         createDefaultModule({ shared }),
         DetentGeneratedModule,

@@ -3,10 +3,11 @@
  * (64 states × 12 inputs, target ≤ 50 ms; 512 states × 12 inputs, target ≤ 500 ms; plus a
  * 16-bit bus variant). Run: node scripts/run-ts.mjs scripts/bench-check.ts [--runs N] [--json]
  *
- * When the language package exports `checkText` (or `parseDetent`), the same machines are also
- * printed as Detent text and timed through that path.
+ * The same machines are also printed as Detent text and timed through `parseDetent` and the
+ * whole `checkText` path of the language package.
  */
 import { analyzeMachine, checkMachine, guardToDetentText, type Emit, type Machine } from '@detent/core';
+import { checkText, parseDetent } from '@detent/language';
 import { mulberry32, randomMachine, type RandomMachineOptions } from '../packages/core/test/support/random-machine.js';
 
 /** Prints a core machine model as Detent text (for the parse + check path). */
@@ -81,19 +82,8 @@ function time(fn: () => unknown): number[] {
     return times;
 }
 
-type TextChecker = (text: string) => unknown;
-async function loadTextPath(): Promise<TextChecker | undefined> {
-    try {
-        // The language package may not exist yet when this runs; its exports are probed at run time.
-        // @ts-ignore -- resolves once packages/language/src/index.ts exists
-        const lang = await import('@detent/language') as Record<string, unknown>;
-        if (typeof lang['checkText'] === 'function') return lang['checkText'] as TextChecker;
-    } catch { /* language package not built yet */ }
-    return undefined;
-}
 
 const results: Record<string, unknown>[] = [];
-const checkText = await loadTextPath();
 for (const c of cases) {
     const machine: Machine = randomMachine(mulberry32(20261202), c.options, 'BenchMachine');
     const findings = checkMachine(machine);
@@ -106,11 +96,14 @@ for (const c of cases) {
         checkMs: median(time(() => checkMachine(machine))),
         targetMs: c.targetMs,
     };
-    if (checkText) {
-        const text = machineToText(machine);
-        row['textBytes'] = text.length;
-        row['checkTextMs'] = median(time(() => checkText(text)));
-    }
+    const text = machineToText(machine);
+    const parsed = parseDetent(text);
+    const problems = parsed.findings.filter((f) => f.severity === 'error');
+    if (problems.length > 0 || parsed.machines.length !== 1) throw new Error(`generated text does not parse cleanly: ${problems[0]?.message}`);
+    row['textBytes'] = text.length;
+    row['textFindings'] = checkText(text).length;
+    row['parseMs'] = median(time(() => parseDetent(text)));
+    row['checkTextMs'] = median(time(() => checkText(text)));
     results.push(row);
 }
 
@@ -119,7 +112,7 @@ if (asJson) {
 } else {
     process.stdout.write(`check benchmark (median of ${runs} runs, parse excluded unless noted)\n`);
     for (const r of results) {
-        const text = r['checkTextMs'] !== undefined ? `, checkText ${(r['checkTextMs'] as number).toFixed(1)} ms (${r['textBytes']} chars)` : ', checkText n/a (language package has no checkText)';
+        const text = `; text (${r['textBytes']} chars): parse+lower ${(r['parseMs'] as number).toFixed(1)} ms, checkText ${(r['checkTextMs'] as number).toFixed(1)} ms`;
         process.stdout.write(`${String(r['case']).padEnd(34)} ${r['transitions']} transitions, ${r['findings']} findings: analyze ${(r['analyzeMs'] as number).toFixed(1)} ms, check ${(r['checkMs'] as number).toFixed(1)} ms (target ≤ ${r['targetMs']} ms)${text}\n`);
     }
 }

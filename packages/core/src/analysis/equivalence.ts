@@ -13,9 +13,8 @@
  */
 import type { Machine } from '../model/machine.js';
 import { type Finding, finding } from '../model/finding.js';
-import { type Cube, intersects, mintermCube } from '../boolean/cube.js';
-import { coversIntersect } from '../boolean/cover.js';
-import type { MachineSpace } from './space.js';
+import { type Cube, mintermCube } from '../boolean/cube.js';
+import { type MachineSpace, regionHas, regionsIntersect } from './space.js';
 
 const MAX_SAMPLES = 64;
 
@@ -45,7 +44,7 @@ export function equivalenceClasses(machine: Machine, space: MachineSpace): Int32
     const at: Int32Array[] = space.states.map((st) => {
         const idx = new Int32Array(samples.length);
         samples.forEach((m, k) => {
-            idx[k] = st.regions.findIndex((r) => r.cover.some((c) => intersects(c, m, nvars)));
+            idx[k] = st.regions.findIndex((r) => regionHas(r, m, nvars));
         });
         return idx;
     });
@@ -58,7 +57,7 @@ export function equivalenceClasses(machine: Machine, space: MachineSpace): Int32
     const sameStep = (a: number, b: number, c: Int32Array): boolean => {
         for (const ra of space.states[a]!.regions) for (const rb of space.states[b]!.regions) {
             if (ra.outputs === rb.outputs && c[ra.target] === c[rb.target]) continue;
-            if (coversIntersect(ra.cover, rb.cover, nvars)) return false;
+            if (regionsIntersect(ra, rb, nvars)) return false;
         }
         return true;
     };

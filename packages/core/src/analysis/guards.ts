@@ -5,7 +5,7 @@
 import type { Machine, State } from '../model/machine.js';
 import { type Finding, finding } from '../model/finding.js';
 import { evaluate } from '../boolean/cover.js';
-import { type MachineSpace, commonMinterm, firstMinterm, fixedInputs, mintermInputs } from './space.js';
+import { type MachineSpace, commonMinterm, firstMinterm, fixedInputs, mintermInputs, mintermOutside } from './space.js';
 import { formatInputs, transitionLabel } from './format.js';
 
 /** Target plus observable outputs: two transitions with equal effects may overlap harmlessly. */
@@ -53,22 +53,22 @@ export function guardFindings(machine: Machine, space: MachineSpace): Finding[] 
         } else {
             // shadowed: satisfiable, but wherever it is true an earlier guard is true too.
             st.guards.forEach((g, i) => {
-                if (g.length === 0 || st.fires[i]!.length > 0) return;
+                if (g.length === 0 || st.fires[i]) return;
                 const bits = firstMinterm(g, n)!;
                 const winner = st.guards.findIndex((h, k) => k < i && evaluate(h, bits));
                 const inputs = mintermInputs(machine, ctx, bits);
                 const relevant = fixedInputs(machine, ctx, [...g, ...st.guards[winner]!]);
                 out.push(finding('shadowed',
-                    `shadowed: ${transitionLabel(ts[i]!, machine)} in priority state '${state.name}' is never the first true guard; earlier guards cover all its inputs (e.g. for ${formatInputs(inputs, relevant)} ${transitionLabel(ts[winner]!, machine)} wins)`,
+                    `shadowed: ${transitionLabel(ts[i]!, machine)} in priority state '${state.name}' is never the first true guard: earlier guards are true wherever it is (for ${formatInputs(inputs, relevant)}, ${transitionLabel(ts[winner]!, machine)} is taken)`,
                     ts[i]!.guard.range,
                     { state: state.name, witness: { inputs }, related: [{ message: `taken first: ${transitionLabel(ts[winner]!, machine)}`, range: ts[winner]!.guard.range }] }));
             });
         }
         // incomplete: no otherwise and some input combination no guard takes.
-        if (!state.otherwise && st.rest.length > 0) {
-            const bits = firstMinterm(st.rest, n)!;
+        if (!state.otherwise && st.hasRest) {
+            const bits = mintermOutside(st.covered, n)!;
             const inputs = mintermInputs(machine, ctx, bits);
-            const relevant = fixedInputs(machine, ctx, [st.rest[0]!]);
+            const relevant = fixedInputs(machine, ctx, st.covered);
             out.push(finding('incomplete',
                 `incomplete: no transition of state '${state.name}' is taken for ${formatInputs(inputs, relevant)}; the state holds there (add 'otherwise' to say what happens)`,
                 state.nameRange, { state: state.name, witness: { inputs } }));

@@ -10,18 +10,26 @@
  */
 import type { Machine, Emit } from '../model/machine.js';
 import type { Witness } from '../model/finding.js';
-import { type Cube, getVar, FREE, intersect, intersects, someMinterm } from '../boolean/cube.js';
-import { type Cover, complement, coverIntersect, coverUnion } from '../boolean/cover.js';
+import { type Cube, FREE, ONE, ZERO, cubeOf, getVar, intersect, intersects, isUniverse, someMinterm, universe } from '../boolean/cube.js';
+import { type Cover, coverCofactor, coverContainsCover, coverContainsCube, coverUnion, tautology } from '../boolean/cover.js';
 import { type GuardContext, guardContext, guardCover } from '../boolean/guard.js';
 
 export type RegionKind = 'when' | 'otherwise' | 'hold' | 'dontcare';
 
+/**
+ * One region of a state's input space, kept as a difference `on \ off` rather than a cover:
+ * the first-true rule makes regions "this guard minus every earlier guard", and complementing
+ * the union of earlier guards is what makes covers explode (a 16-bit comparison is 16 cubes);
+ * emptiness and intersection of differences need only containment (tautology) checks.
+ */
 export interface Region {
     readonly kind: RegionKind;
     /** Transition index for `when` regions. */
     readonly transition?: number;
-    /** Non-empty cover of the inputs for which this region decides the step. */
-    readonly cover: Cube[];
+    /** The guard (for `when`) or the universe (for the rest of the inputs). */
+    readonly on: Cube[];
+    /** The union of the guards before it; the region is `on` minus `off`, never empty. */
+    readonly off: Cube[];
     readonly target: number;
     /** Interned id of the observable output vector (Moore overlaid with Mealy) in this region. */
     readonly outputs: number;
@@ -30,12 +38,12 @@ export interface Region {
 export interface StateSpace {
     /** Cover of each transition's guard. */
     readonly guards: readonly Cube[][];
-    /** Where each transition is the first true one (may be empty). */
-    readonly fires: readonly Cube[][];
+    /** Whether each transition is the first true one for some input. */
+    readonly fires: readonly boolean[];
     /** Union of all guards. */
     readonly covered: Cube[];
-    /** Inputs no guard takes (the `otherwise` region). */
-    readonly rest: Cube[];
+    /** True when some input makes no guard true (the `otherwise` region is not empty). */
+    readonly hasRest: boolean;
     /** Non-empty regions; together they partition the input space. */
     readonly regions: readonly Region[];
     /** True when the state has an `otherwise dontcare` that covers some input. */
@@ -68,31 +76,76 @@ export function buildSpace(machine: Machine): MachineSpace {
         if (id === undefined) { id = outputVectors.length; outputVectors.push(v); ids.set(key, id); }
         return id;
     };
+    const all = [universe(n)];
     const states = machine.states.map((state): StateSpace => {
         const guards = state.transitions.map((t) => guardCover(t.guard, ctx));
-        const fires: Cube[][] = [];
+        const fires: boolean[] = [];
         const regions: Region[] = [];
         let covered: Cube[] = [];
         guards.forEach((g, i) => {
             const t = state.transitions[i]!;
-            const fire = covered.length === 0 ? g : coverIntersect(g, complement(covered, n), n);
+            const fire = g.length > 0 && !coverContainsCover(covered, g, n);
             fires.push(fire);
-            if (fire.length > 0) regions.push({ kind: 'when', transition: i, cover: fire, target: t.target, outputs: intern(outputVector(machine, state.emits, t.emits)) });
+            if (fire) regions.push({ kind: 'when', transition: i, on: g, off: covered, target: t.target, outputs: intern(outputVector(machine, state.emits, t.emits)) });
             if (g.length > 0) covered = coverUnion(covered, g);
         });
-        const rest = complement(covered, n);
+        const hasRest = !tautology(covered, n);
         let dontcare = false;
-        if (rest.length > 0) {
+        if (hasRest) {
             const o = state.otherwise;
-            if (o?.kind === 'goto') regions.push({ kind: 'otherwise', cover: rest, target: o.target, outputs: intern(outputVector(machine, state.emits, o.emits)) });
+            const rest = { on: all, off: covered };
+            if (o?.kind === 'goto') regions.push({ kind: 'otherwise', ...rest, target: o.target, outputs: intern(outputVector(machine, state.emits, o.emits)) });
             else if (o?.kind === 'dontcare') {
                 dontcare = true;
-                regions.push({ kind: 'dontcare', cover: rest, target: state.index, outputs: intern(outputVector(machine, state.emits, [])) });
-            } else regions.push({ kind: 'hold', cover: rest, target: state.index, outputs: intern(outputVector(machine, state.emits, [])) });
+                regions.push({ kind: 'dontcare', ...rest, target: state.index, outputs: intern(outputVector(machine, state.emits, [])) });
+            } else regions.push({ kind: 'hold', ...rest, target: state.index, outputs: intern(outputVector(machine, state.emits, [])) });
         }
-        return { guards, fires, covered, rest, regions, dontcare };
+        return { guards, fires, covered, hasRest, regions, dontcare };
     });
     return { ctx, states, outputVectors };
+}
+
+/** True when the minterm cube m lies in the region. */
+export function regionHas(r: Region, m: Cube, nvars: number): boolean {
+    return r.on.some((c) => intersects(c, m, nvars)) && !r.off.some((c) => intersects(c, m, nvars));
+}
+
+/** True when two regions share an input: some cube of on_a ∩ on_b is not inside off_a ∪ off_b. */
+export function regionsIntersect(a: Region, b: Region, nvars: number): boolean {
+    let off: Cube[] | undefined;
+    for (const ca of a.on) for (const cb of b.on) {
+        const c = intersect(ca, cb, nvars);
+        if (!c) continue;
+        off ??= [...a.off, ...b.off];
+        if (!coverContainsCube(off, c, nvars)) return true;
+    }
+    return false;
+}
+
+/**
+ * A minterm no cube of f contains, or undefined when f is a tautology. Splits like the
+ * tautology check (most binate variable, 0 before 1, so witnesses favour zeros); a unate
+ * cover without the universal cube is always escapable (see unateEscape).
+ */
+export function mintermOutside(f: Cover, nvars: number): (0 | 1)[] | undefined {
+    if (f.length === 0) return new Array<0 | 1>(nvars).fill(0);
+    for (const c of f) if (isUniverse(c, nvars)) return undefined;
+    const zeros = new Int32Array(nvars);
+    const ones = new Int32Array(nvars);
+    for (const c of f) for (let v = 0; v < nvars; v++) {
+        const x = getVar(c, v);
+        if (x === ZERO) zeros[v]!++; else if (x === ONE) ones[v]!++;
+    }
+    let split = -1;
+    let best = 0;
+    for (let v = 0; v < nvars; v++) if (zeros[v]! > 0 && ones[v]! > 0 && zeros[v]! + ones[v]! > best) { best = zeros[v]! + ones[v]!; split = v; }
+    if (split < 0) return unateEscape(f, nvars);
+    for (const value of [0, 1] as const) {
+        const sub = coverCofactor(f, cubeOf(nvars, [[split, value]]), nvars);
+        const r = mintermOutside(sub, nvars);
+        if (r) { r[split] = value; return r; }
+    }
+    return undefined;
 }
 
 /** Some minterm in both covers, or undefined. */
@@ -135,4 +188,33 @@ export function mintermInputs(machine: Machine, ctx: GuardContext, bits: readonl
 
 export function inputWitness(machine: Machine, ctx: GuardContext, bits: readonly (0 | 1)[]): Witness {
     return { inputs: mintermInputs(machine, ctx, bits) };
+}
+
+/**
+ * A minterm outside a unate cover that lacks the universal cube. Start from all zeros; while
+ * some cube still contains it (all of that cube's literals are complemented ones), set to 1
+ * the variable that kills most such cubes. Unate means no cube has that variable's positive
+ * literal, so no cube is revived; the result has few ones, which reads well in messages.
+ */
+function unateEscape(f: Cover, nvars: number): (0 | 1)[] {
+    const m = new Array<0 | 1>(nvars).fill(0);
+    let alive = f.filter((c) => containsAssignment(c, m, nvars));
+    while (alive.length > 0) {
+        const hits = new Int32Array(nvars);
+        for (const c of alive) for (let v = 0; v < nvars; v++) if (getVar(c, v) === ZERO) hits[v]!++;
+        let best = 0;
+        for (let v = 1; v < nvars; v++) if (hits[v]! > hits[best]!) best = v;
+        m[best] = 1;
+        alive = alive.filter((c) => containsAssignment(c, m, nvars));
+    }
+    return m;
+}
+
+function containsAssignment(c: Cube, m: readonly (0 | 1)[], nvars: number): boolean {
+    for (let v = 0; v < nvars; v++) {
+        const x = getVar(c, v);
+        if (x === FREE) continue;
+        if ((x === ONE) !== (m[v] === 1)) return false;
+    }
+    return true;
 }

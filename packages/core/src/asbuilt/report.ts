@@ -1,0 +1,200 @@
+/**
+ * The recovery report (what the CLI and the editor show) and the as-built findings:
+ * `lockup`, `reset-code`, `async-input`, and `limit` when an analysis was skipped.
+ */
+import type { Machine, SourceRange } from '../model/machine.js';
+import { type Finding, type Witness, finding } from '../model/finding.js';
+import { inputOffsets } from '../model/variables.js';
+import { FREE, getVar } from '../boolean/cube.js';
+import type { SynthesisOptions } from '../synthesis/synthesize.js';
+import { synthesisBlocker, synthesize } from '../synthesis/run.js';
+import type { SynthesisResult } from '../synthesis/types.js';
+import { BddLimitError } from './bdd.js';
+import { type SafetyAnalysis, explicitSafety, symbolicSafety } from './safety.js';
+
+export interface RecoveryReport {
+    readonly width: number;
+    /** 2^width − used codes (a float above 2^53). */
+    readonly unusedCodes: number;
+    readonly lockup: boolean;
+    /** Lock-up witness: a cycle of unused codes with the inputs that move each to the next. */
+    readonly witness?: Witness;
+    /** Worst-case clocks from any unused code to a used one under adversarial inputs (no lock-up). */
+    readonly worstLatency?: number;
+    readonly worstLatencyCode?: string;
+    readonly method: 'explicit' | 'symbolic' | 'skipped';
+    /**
+     * For `reset … clear`: 'state' (all-zero code is a state), 'recovers' (unused, reaches a state
+     * within `resetCodeLatency` clocks), 'stuck' (unused and can stay unused forever: `reset-code`).
+     * 'no-clear-reset' otherwise.
+     */
+    readonly resetCode: 'no-clear-reset' | 'state' | 'recovers' | 'stuck';
+    readonly resetCodeLatency?: number;
+    /** The `recover` target, when declared. */
+    readonly recover?: string;
+    /** What `recover` costs: this synthesis minus the same synthesis with unused codes as don't-cares. */
+    readonly recoverCostDelta?: { readonly flipflops: number; readonly literals: number; readonly gateInputs: number; readonly products: number };
+    /** Why the analysis was skipped (method 'skipped'). */
+    readonly skipped?: string;
+    /** For resetCode 'stuck': the walk from the all-zero code until it repeats a code. */
+    readonly resetWitness?: Witness;
+    readonly elapsedMs: number;
+}
+
+export interface AsBuiltOptions {
+    /** 'auto' (default): explicit when 2^(width + input bits) ≤ 2^explicitLimitBits, symbolic beyond. */
+    readonly method?: 'auto' | 'explicit' | 'symbolic';
+    readonly explicitLimitBits?: number;
+    /** Wall-clock budget of the lock-up analysis, in milliseconds. */
+    readonly budgetMs?: number;
+    readonly maxNodes?: number;
+    /** Compute recoverCostDelta (a second synthesis). Default true. */
+    readonly recoverCost?: boolean;
+    /** Options for the synthesis run (encoding, flip-flop, auto budget). */
+    readonly synthesis?: SynthesisOptions;
+}
+
+const DEFAULT_EXPLICIT_BITS = 16;
+
+/** Lock-up analysis of one synthesis result, explicit or symbolic. Throws BddLimitError past the budget. */
+export function safetyAnalysis(result: SynthesisResult, options: AsBuiltOptions = {}): SafetyAnalysis {
+    const bits = result.assignment.width + result.inputCount;
+    const method = options.method ?? 'auto';
+    const deadline = options.budgetMs === undefined ? undefined : Date.now() + options.budgetMs;
+    const explicit = method === 'explicit' || (method === 'auto' && bits <= (options.explicitLimitBits ?? DEFAULT_EXPLICIT_BITS));
+    if (explicit) {
+        if (bits > 26) throw new BddLimitError(`explicit enumeration of 2^${bits} code/input combinations`);
+        return explicitSafety(result, deadline);
+    }
+    return symbolicSafety(result, { deadline, maxNodes: options.maxNodes });
+}
+
+function costDelta(a: SynthesisResult, b: SynthesisResult): RecoveryReport['recoverCostDelta'] {
+    return {
+        flipflops: a.cost.flipflops - b.cost.flipflops,
+        literals: a.cost.literals - b.cost.literals,
+        gateInputs: a.cost.gateInputs - b.cost.gateInputs,
+        products: a.cost.products - b.cost.products,
+    };
+}
+
+function cycleWitness(a: SafetyAnalysis): Witness | undefined {
+    return a.cycle ? { cycle: a.cycle.map((s) => ({ code: s.code, inputs: { ...s.inputs } })) } : undefined;
+}
+
+/** The recovery report of a machine (synthesized here) or of a synthesis result. */
+export function recoveryReport(subject: Machine | SynthesisResult, options: AsBuiltOptions = {}): RecoveryReport {
+    const start = Date.now();
+    const result = 'equations' in subject ? subject : synthesize(subject, options.synthesis);
+    const machine = result.machine;
+    const clear = machine.reset?.target === 'clear';
+    const recover = machine.recover ? machine.states[machine.recover.target]?.name : undefined;
+    let recoverCostDelta: RecoveryReport['recoverCostDelta'];
+    if (machine.recover && (options.recoverCost ?? true)) {
+        const without = synthesize(machine, {
+            ...options.synthesis, encoding: result.assignment.encoding,
+            flipflop: result.flipflop, ignoreRecover: true,
+        });
+        recoverCostDelta = costDelta(result, without);
+    }
+    const width = result.assignment.width;
+    const unusedCodes = 2 ** width - new Set(result.assignment.codes).size;
+    try {
+        const a = safetyAnalysis(result, options);
+        return {
+            width,
+            unusedCodes,
+            lockup: a.lockup,
+            witness: cycleWitness(a),
+            worstLatency: a.worstLatency,
+            worstLatencyCode: a.worstLatencyCode,
+            method: a.method,
+            resetCode: !clear ? 'no-clear-reset' : a.zero.used ? 'state' : a.zero.stuck ? 'stuck' : 'recovers',
+            resetCodeLatency: clear && !a.zero.used && !a.zero.stuck ? a.zero.latency : undefined,
+            recover,
+            recoverCostDelta,
+            elapsedMs: Date.now() - start,
+            ...(clear && a.zero.stuck ? { resetWitness: { cycle: a.walkFrom('0'.repeat(width)).map((s) => ({ code: s.code, inputs: { ...s.inputs } })) } } : {}),
+        };
+    } catch (err) {
+        if (!(err instanceof BddLimitError)) throw err;
+        return {
+            width, unusedCodes, lockup: false, method: 'skipped', resetCode: clear ? 'recovers' : 'no-clear-reset',
+            recover, recoverCostDelta, skipped: err.message, elapsedMs: Date.now() - start,
+        };
+    }
+}
+
+function isNoRange(r: SourceRange): boolean {
+    return r.start.line === 0 && r.start.character === 0 && r.end.line === 0 && r.end.character === 0;
+}
+
+function machineRange(machine: Machine): SourceRange {
+    return isNoRange(machine.encodingRange) ? machine.nameRange : machine.encodingRange;
+}
+
+function cycleText(w: Witness | undefined): string {
+    const cycle = w?.cycle ?? [];
+    if (cycle.length === 0) return '';
+    const steps = cycle.map((s) => {
+        const ins = Object.entries(s.inputs).map(([k, v]) => `${k}=${v}`).join(',');
+        return ins ? `${s.code} (${ins})` : s.code;
+    });
+    return `${steps.join(' → ')} → ${cycle[0]!.code}`;
+}
+
+/**
+ * `async-input`: an asynchronous input that appears in the input logic of more than one flip-flop
+ * (state bits and registered output bits). Common practice: synchronize it first (two flip-flops
+ * in series) so that every flip-flop sees the same sampled value.
+ */
+export function asyncInputFindings(result: SynthesisResult): Finding[] {
+    const machine = result.machine;
+    const offsets = inputOffsets(machine);
+    const nvars = result.variables.length;
+    const findings: Finding[] = [];
+    machine.inputs.forEach((input, index) => {
+        if (!input.async) return;
+        const vars = Array.from({ length: input.width }, (_, b) => offsets[index]! + b);
+        const flipflops = new Set<string>();
+        for (const e of result.equations) {
+            if (e.role === 'output') continue;
+            const reads = e.cover.some((c) => vars.some((v) => v < nvars && getVar(c, v) !== FREE));
+            if (reads) flipflops.add(e.role === 'excitation' ? `q${e.stateBit}` : e.name);
+        }
+        if (flipflops.size > 1) {
+            const list = [...flipflops].sort();
+            findings.push(finding('async-input',
+                `asynchronous input '${input.name}' reaches the excitation of ${list.length} flip-flops (${list.join(', ')}); `
+                + 'they can sample it differently on the same edge — synchronize it first with two flip-flops in series',
+                input.nameRange, { signal: input.name }));
+        }
+    });
+    return findings;
+}
+
+/** Findings for one machine from its synthesized logic. */
+export function asBuiltFindings(machine: Machine, options: AsBuiltOptions = {}): Finding[] {
+    if (synthesisBlocker(machine)) return []; // the model errors are reported by the design analyses / lowering
+    const synthesisOptions: SynthesisOptions = { budgetMs: 100, ...options.synthesis };
+    const result = synthesize(machine, synthesisOptions);
+    const findings: Finding[] = [...asyncInputFindings(result)];
+    const report = recoveryReport(result, { budgetMs: 300, recoverCost: false, ...options, synthesis: synthesisOptions });
+    if (report.method === 'skipped') {
+        findings.push(finding('limit', `lock-up and reset-code analysis skipped: ${report.skipped}`, machineRange(machine)));
+        return findings;
+    }
+    const ff = `${result.flipflop} flip-flops, ${result.assignment.encoding} encoding`;
+    if (report.lockup) {
+        findings.push(finding('lockup',
+            `as built (${ff}) an unused code can stay among unused codes forever: ${cycleText(report.witness)}; add 'recover -> S;' to send unused codes to a state`,
+            machineRange(machine), { witness: report.witness }));
+    }
+    if (report.resetCode === 'stuck' && machine.reset) {
+        findings.push(finding('reset-code',
+            `'reset … clear' loads code ${'0'.repeat(report.width)}, which is no state, and as built (${ff}) it does not recover`
+            + (report.resetWitness ? `: ${cycleText(report.resetWitness)}` : ''),
+            machine.reset.range, { witness: report.resetWitness }));
+    }
+    return findings;
+}

@@ -2,7 +2,7 @@
  * Text → lowered machines + findings (syntax, lowering) and, for `checkText`, the core checks.
  * The editor's validator and the CLI both go through `analyzeParse`, so they report the same.
  */
-import type { AstNode } from 'langium';
+import { type AstNode, GrammarUtils } from 'langium';
 import type { LangiumParser } from 'langium';
 import { type CheckOptions, type Finding, type Machine, checkMachine, finding } from '@detent/core';
 import { createDetentCoreServices } from './detent-module.js';
@@ -62,7 +62,8 @@ export function analyzeParse(result: ParseResult<AstNode>, text: string, extraSy
         const cst = node.$cstNode;
         const start = cst?.offset ?? 0;
         const end = cst ? cst.end : 0;
-        const closed = cst ? cst.text.trimEnd().endsWith('}') : false;
+        // closed = the machine's own `}` was parsed (not just a nested state's)
+        const closed = cst ? GrammarUtils.findNodeForKeyword(cst, '}') !== undefined : false;
         const own = syntax.filter((s) => !claimed.has(s) && s.offset >= start && (s.offset < end || !closed));
         own.forEach((s) => claimed.add(s));
         const findings = [...own.map((s) => s.finding), ...ctx.findings];

@@ -7,8 +7,8 @@
 import * as langium from 'langium';
 
 export const DetentTerminals = {
-    NUMBER: /0[bB][01]+|0[xX][0-9a-fA-F]+|[0-9]+/,
-    ID: /[A-Za-z_][A-Za-z0-9_]*/,
+    NumberLiteral: /0[bB][01]+|0[xX][0-9a-fA-F]+|[0-9]+/,
+    Name: /[A-Za-z_][A-Za-z0-9_]*/,
     WS: /\s+/,
     ML_COMMENT: /\/\*[\s\S]*?\*\//,
     SL_COMMENT: /\/\/[^\n\r]*/,
@@ -32,10 +32,6 @@ export type DetentKeywordNames =
     | "=="
     | ">"
     | ">="
-    | "D"
-    | "JK"
-    | "SR"
-    | "T"
     | "["
     | "]"
     | "^"
@@ -99,7 +95,7 @@ export interface ClockDecl extends langium.AstNode {
     readonly $container: Machine;
     readonly $type: 'ClockDecl';
     edge?: 'falling' | 'rising';
-    name: Name;
+    name: string;
 }
 
 export const ClockDecl = {
@@ -116,7 +112,7 @@ export interface CodeDecl extends langium.AstNode {
     readonly $container: Machine;
     readonly $type: 'CodeDecl';
     state: langium.Reference<State>;
-    value: NumberLiteral;
+    value: string;
 }
 
 export const CodeDecl = {
@@ -138,7 +134,7 @@ export function isCompareOp(item: unknown): item is CompareOp {
 export interface ConstGuard extends langium.AstNode {
     readonly $container: AndGuard | NotGuard | OrGuard | ParenGuard | Transition | XorGuard;
     readonly $type: 'ConstGuard';
-    value: NumberLiteral;
+    value: string;
 }
 
 export const ConstGuard = {
@@ -154,7 +150,7 @@ export interface EmitItem extends langium.AstNode {
     readonly $container: MooreEmit | Otherwise | Transition;
     readonly $type: 'EmitItem';
     output: langium.Reference<OutputSignal>;
-    value?: NumberLiteral;
+    value?: string;
 }
 
 export const EmitItem = {
@@ -208,7 +204,7 @@ export function isExpectStep(item: unknown): item is ExpectStep {
 export interface FlipFlopDecl extends langium.AstNode {
     readonly $container: Machine;
     readonly $type: 'FlipFlopDecl';
-    kind: FlipFlopKind;
+    kind: string;
 }
 
 export const FlipFlopDecl = {
@@ -218,12 +214,6 @@ export const FlipFlopDecl = {
 
 export function isFlipFlopDecl(item: unknown): item is FlipFlopDecl {
     return reflection.isInstance(item, FlipFlopDecl.$type);
-}
-
-export type FlipFlopKind = 'D' | 'JK' | 'SR' | 'T';
-
-export function isFlipFlopKind(item: unknown): item is FlipFlopKind {
-    return item === 'D' || item === 'T' || item === 'JK' || item === 'SR';
 }
 
 export type Guard = AndGuard | ConstGuard | NotGuard | OrGuard | ParenGuard | SignalGuard | XorGuard;
@@ -240,7 +230,7 @@ export interface InputAssignment extends langium.AstNode {
     readonly $container: InputStep;
     readonly $type: 'InputAssignment';
     signal: langium.Reference<InputSignal>;
-    value?: NumberLiteral;
+    value?: string;
 }
 
 export const InputAssignment = {
@@ -258,7 +248,7 @@ export interface InputDecl extends langium.AstNode {
     readonly $type: 'InputDecl';
     async: boolean;
     signals: Array<InputSignal>;
-    width?: NumberLiteral;
+    width?: string;
 }
 
 export const InputDecl = {
@@ -275,7 +265,7 @@ export function isInputDecl(item: unknown): item is InputDecl {
 export interface InputSignal extends langium.AstNode {
     readonly $container: InputDecl;
     readonly $type: 'InputSignal';
-    name: Name;
+    name: string;
 }
 
 export const InputSignal = {
@@ -291,7 +281,7 @@ export interface InputStep extends langium.AstNode {
     readonly $container: Scenario;
     readonly $type: 'InputStep';
     assignments: Array<InputAssignment>;
-    repeat?: NumberLiteral;
+    repeat?: string;
 }
 
 export const InputStep = {
@@ -308,7 +298,7 @@ export interface Machine extends langium.AstNode {
     readonly $container: Model;
     readonly $type: 'Machine';
     members: Array<Member>;
-    name: Name;
+    name: string;
 }
 
 export const Machine = {
@@ -360,12 +350,6 @@ export function isMooreEmit(item: unknown): item is MooreEmit {
     return reflection.isInstance(item, MooreEmit.$type);
 }
 
-export type Name = 'D' | 'JK' | 'SR' | 'T' | string;
-
-export function isName(item: unknown): item is Name {
-    return item === 'D' || item === 'T' || item === 'JK' || item === 'SR' || (typeof item === 'string' && (/[A-Za-z_][A-Za-z0-9_]*/.test(item)));
-}
-
 export interface NotGuard extends langium.AstNode {
     readonly $container: AndGuard | NotGuard | OrGuard | ParenGuard | Transition | XorGuard;
     readonly $type: 'NotGuard';
@@ -379,12 +363,6 @@ export const NotGuard = {
 
 export function isNotGuard(item: unknown): item is NotGuard {
     return reflection.isInstance(item, NotGuard.$type);
-}
-
-export type NumberLiteral = string;
-
-export function isNumberLiteral(item: unknown): item is NumberLiteral {
-    return (typeof item === 'string' && (/0[bB][01]+|0[xX][0-9a-fA-F]+|[0-9]+/.test(item)));
 }
 
 export interface OrGuard extends langium.AstNode {
@@ -428,7 +406,7 @@ export interface OutputDecl extends langium.AstNode {
     readonly $type: 'OutputDecl';
     registered: boolean;
     signals: Array<OutputSignal>;
-    width?: NumberLiteral;
+    width?: string;
 }
 
 export const OutputDecl = {
@@ -446,7 +424,7 @@ export interface OutputExpectation extends langium.AstNode {
     readonly $container: ExpectStep;
     readonly $type: 'OutputExpectation';
     output: langium.Reference<OutputSignal>;
-    value?: NumberLiteral;
+    value?: string;
 }
 
 export const OutputExpectation = {
@@ -462,7 +440,7 @@ export function isOutputExpectation(item: unknown): item is OutputExpectation {
 export interface OutputSignal extends langium.AstNode {
     readonly $container: OutputDecl;
     readonly $type: 'OutputSignal';
-    name: Name;
+    name: string;
 }
 
 export const OutputSignal = {
@@ -510,7 +488,7 @@ export interface ResetDecl extends langium.AstNode {
     clear: boolean;
     level?: 'high' | 'low';
     mode?: 'async' | 'sync';
-    name: Name;
+    name: string;
     target?: langium.Reference<State>;
 }
 
@@ -543,7 +521,7 @@ export function isResetStep(item: unknown): item is ResetStep {
 export interface Scenario extends langium.AstNode {
     readonly $container: Machine;
     readonly $type: 'Scenario';
-    name: Name;
+    name: string;
     steps: Array<ScenarioStep>;
 }
 
@@ -570,10 +548,10 @@ export function isScenarioStep(item: unknown): item is ScenarioStep {
 export interface SignalGuard extends langium.AstNode {
     readonly $container: AndGuard | NotGuard | OrGuard | ParenGuard | Transition | XorGuard;
     readonly $type: 'SignalGuard';
-    bit?: NumberLiteral;
+    bit?: string;
     op?: CompareOp;
     signal: langium.Reference<InputSignal>;
-    value?: NumberLiteral;
+    value?: string;
 }
 
 export const SignalGuard = {
@@ -592,7 +570,7 @@ export interface State extends langium.AstNode {
     readonly $container: Machine;
     readonly $type: 'State';
     items: Array<StateItem>;
-    name: Name;
+    name: string;
     priority: boolean;
 }
 

@@ -132,6 +132,13 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
           {
             "$type": "RuleCall",
             "rule": {
+              "$ref": "#/rules@12"
+            },
+            "arguments": []
+          },
+          {
+            "$type": "RuleCall",
+            "rule": {
               "$ref": "#/rules@13"
             },
             "arguments": []
@@ -146,14 +153,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
           {
             "$type": "RuleCall",
             "rule": {
-              "$ref": "#/rules@15"
-            },
-            "arguments": []
-          },
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@28"
+              "$ref": "#/rules@27"
             },
             "arguments": []
           }
@@ -291,7 +291,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                     "terminal": {
                       "$type": "CrossReference",
                       "type": {
-                        "$ref": "#/rules@15"
+                        "$ref": "#/rules@14"
                       },
                       "terminal": {
                         "$type": "RuleCall",
@@ -361,7 +361,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@36"
+                    "$ref": "#/rules@34"
                   },
                   "arguments": []
                 }
@@ -470,7 +470,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@36"
+                    "$ref": "#/rules@34"
                   },
                   "arguments": []
                 }
@@ -635,7 +635,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@12"
+                "$ref": "#/rules@35"
               },
               "arguments": []
             }
@@ -643,35 +643,6 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
           {
             "$type": "Keyword",
             "value": ";"
-          }
-        ]
-      },
-      "entry": false,
-      "fragment": false,
-      "parameters": []
-    },
-    {
-      "$type": "ParserRule",
-      "name": "FlipFlopKind",
-      "dataType": "string",
-      "definition": {
-        "$type": "Alternatives",
-        "elements": [
-          {
-            "$type": "Keyword",
-            "value": "D"
-          },
-          {
-            "$type": "Keyword",
-            "value": "T"
-          },
-          {
-            "$type": "Keyword",
-            "value": "JK"
-          },
-          {
-            "$type": "Keyword",
-            "value": "SR"
           }
         ]
       },
@@ -696,7 +667,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "CrossReference",
               "type": {
-                "$ref": "#/rules@15"
+                "$ref": "#/rules@14"
               },
               "terminal": {
                 "$type": "RuleCall",
@@ -720,7 +691,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@36"
+                "$ref": "#/rules@34"
               },
               "arguments": []
             }
@@ -756,7 +727,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "CrossReference",
               "type": {
-                "$ref": "#/rules@15"
+                "$ref": "#/rules@14"
               },
               "terminal": {
                 "$type": "RuleCall",
@@ -822,7 +793,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@16"
+                "$ref": "#/rules@15"
               },
               "arguments": []
             },
@@ -847,7 +818,14 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
           {
             "$type": "RuleCall",
             "rule": {
-              "$ref": "#/rules@17"
+              "$ref": "#/rules@16"
+            },
+            "arguments": []
+          },
+          {
+            "$type": "RuleCall",
+            "rule": {
+              "$ref": "#/rules@18"
             },
             "arguments": []
           },
@@ -855,13 +833,6 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "$type": "RuleCall",
             "rule": {
               "$ref": "#/rules@19"
-            },
-            "arguments": []
-          },
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@20"
             },
             "arguments": []
           }
@@ -888,7 +859,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@18"
+                "$ref": "#/rules@17"
               },
               "arguments": []
             }
@@ -907,7 +878,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@18"
+                    "$ref": "#/rules@17"
                   },
                   "arguments": []
                 }
@@ -965,7 +936,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@36"
+                    "$ref": "#/rules@34"
                   },
                   "arguments": []
                 }
@@ -996,7 +967,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@21"
+                "$ref": "#/rules@20"
               },
               "arguments": []
             }
@@ -1012,7 +983,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "CrossReference",
               "type": {
-                "$ref": "#/rules@15"
+                "$ref": "#/rules@14"
               },
               "terminal": {
                 "$type": "RuleCall",
@@ -1039,7 +1010,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@18"
+                    "$ref": "#/rules@17"
                   },
                   "arguments": []
                 }
@@ -1058,7 +1029,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                     "terminal": {
                       "$type": "RuleCall",
                       "rule": {
-                        "$ref": "#/rules@18"
+                        "$ref": "#/rules@17"
                       },
                       "arguments": []
                     }
@@ -1106,7 +1077,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                     "terminal": {
                       "$type": "CrossReference",
                       "type": {
-                        "$ref": "#/rules@15"
+                        "$ref": "#/rules@14"
                       },
                       "terminal": {
                         "$type": "RuleCall",
@@ -1133,7 +1104,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                         "terminal": {
                           "$type": "RuleCall",
                           "rule": {
-                            "$ref": "#/rules@18"
+                            "$ref": "#/rules@17"
                           },
                           "arguments": []
                         }
@@ -1152,7 +1123,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                             "terminal": {
                               "$type": "RuleCall",
                               "rule": {
-                                "$ref": "#/rules@18"
+                                "$ref": "#/rules@17"
                               },
                               "arguments": []
                             }
@@ -1201,7 +1172,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
       "definition": {
         "$type": "RuleCall",
         "rule": {
-          "$ref": "#/rules@22"
+          "$ref": "#/rules@21"
         },
         "arguments": []
       },
@@ -1222,7 +1193,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
           {
             "$type": "RuleCall",
             "rule": {
-              "$ref": "#/rules@23"
+              "$ref": "#/rules@22"
             },
             "arguments": []
           },
@@ -1252,7 +1223,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                     "terminal": {
                       "$type": "RuleCall",
                       "rule": {
-                        "$ref": "#/rules@23"
+                        "$ref": "#/rules@22"
                       },
                       "arguments": []
                     }
@@ -1282,7 +1253,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
           {
             "$type": "RuleCall",
             "rule": {
-              "$ref": "#/rules@24"
+              "$ref": "#/rules@23"
             },
             "arguments": []
           },
@@ -1312,7 +1283,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                     "terminal": {
                       "$type": "RuleCall",
                       "rule": {
-                        "$ref": "#/rules@24"
+                        "$ref": "#/rules@23"
                       },
                       "arguments": []
                     }
@@ -1342,7 +1313,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
           {
             "$type": "RuleCall",
             "rule": {
-              "$ref": "#/rules@25"
+              "$ref": "#/rules@24"
             },
             "arguments": []
           },
@@ -1372,7 +1343,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                     "terminal": {
                       "$type": "RuleCall",
                       "rule": {
-                        "$ref": "#/rules@25"
+                        "$ref": "#/rules@24"
                       },
                       "arguments": []
                     }
@@ -1420,7 +1391,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@25"
+                    "$ref": "#/rules@24"
                   },
                   "arguments": []
                 }
@@ -1430,7 +1401,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
           {
             "$type": "RuleCall",
             "rule": {
-              "$ref": "#/rules@26"
+              "$ref": "#/rules@25"
             },
             "arguments": []
           }
@@ -1471,7 +1442,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@21"
+                    "$ref": "#/rules@20"
                   },
                   "arguments": []
                 }
@@ -1499,7 +1470,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@36"
+                    "$ref": "#/rules@34"
                   },
                   "arguments": []
                 }
@@ -1553,7 +1524,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                         "terminal": {
                           "$type": "RuleCall",
                           "rule": {
-                            "$ref": "#/rules@36"
+                            "$ref": "#/rules@34"
                           },
                           "arguments": []
                         }
@@ -1574,7 +1545,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                         "terminal": {
                           "$type": "RuleCall",
                           "rule": {
-                            "$ref": "#/rules@27"
+                            "$ref": "#/rules@26"
                           },
                           "arguments": []
                         }
@@ -1586,7 +1557,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                         "terminal": {
                           "$type": "RuleCall",
                           "rule": {
-                            "$ref": "#/rules@36"
+                            "$ref": "#/rules@34"
                           },
                           "arguments": []
                         }
@@ -1674,7 +1645,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@29"
+                "$ref": "#/rules@28"
               },
               "arguments": []
             },
@@ -1699,6 +1670,13 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
           {
             "$type": "RuleCall",
             "rule": {
+              "$ref": "#/rules@29"
+            },
+            "arguments": []
+          },
+          {
+            "$type": "RuleCall",
+            "rule": {
               "$ref": "#/rules@30"
             },
             "arguments": []
@@ -1706,14 +1684,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
           {
             "$type": "RuleCall",
             "rule": {
-              "$ref": "#/rules@31"
-            },
-            "arguments": []
-          },
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@33"
+              "$ref": "#/rules@32"
             },
             "arguments": []
           }
@@ -1777,7 +1748,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@32"
+                    "$ref": "#/rules@31"
                   },
                   "arguments": []
                 }
@@ -1796,7 +1767,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                     "terminal": {
                       "$type": "RuleCall",
                       "rule": {
-                        "$ref": "#/rules@32"
+                        "$ref": "#/rules@31"
                       },
                       "arguments": []
                     }
@@ -1821,7 +1792,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@36"
+                    "$ref": "#/rules@34"
                   },
                   "arguments": []
                 }
@@ -1879,7 +1850,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@36"
+                    "$ref": "#/rules@34"
                   },
                   "arguments": []
                 }
@@ -1917,7 +1888,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "CrossReference",
               "type": {
-                "$ref": "#/rules@15"
+                "$ref": "#/rules@14"
               },
               "terminal": {
                 "$type": "RuleCall",
@@ -1945,7 +1916,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@34"
+                    "$ref": "#/rules@33"
                   },
                   "arguments": []
                 }
@@ -1964,7 +1935,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                     "terminal": {
                       "$type": "RuleCall",
                       "rule": {
-                        "$ref": "#/rules@34"
+                        "$ref": "#/rules@33"
                       },
                       "arguments": []
                     }
@@ -2025,7 +1996,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@36"
+                    "$ref": "#/rules@34"
                   },
                   "arguments": []
                 }
@@ -2040,59 +2011,12 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
       "parameters": []
     },
     {
-      "$type": "ParserRule",
-      "name": "Name",
-      "dataType": "string",
-      "definition": {
-        "$type": "Alternatives",
-        "elements": [
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@38"
-            },
-            "arguments": []
-          },
-          {
-            "$type": "Keyword",
-            "value": "D"
-          },
-          {
-            "$type": "Keyword",
-            "value": "T"
-          },
-          {
-            "$type": "Keyword",
-            "value": "JK"
-          },
-          {
-            "$type": "Keyword",
-            "value": "SR"
-          }
-        ]
-      },
-      "entry": false,
-      "fragment": false,
-      "parameters": []
-    },
-    {
-      "$type": "ParserRule",
-      "name": "NumberLiteral",
-      "dataType": "string",
-      "definition": {
-        "$type": "RuleCall",
-        "rule": {
-          "$ref": "#/rules@37"
-        },
-        "arguments": []
-      },
-      "entry": false,
-      "fragment": false,
-      "parameters": []
-    },
-    {
       "$type": "TerminalRule",
-      "name": "NUMBER",
+      "name": "NumberLiteral",
+      "type": {
+        "$type": "ReturnType",
+        "name": "string"
+      },
       "definition": {
         "$type": "RegexToken",
         "regex": "/0[bB][01]+|0[xX][0-9a-fA-F]+|[0-9]+/",
@@ -2103,7 +2027,11 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
     },
     {
       "$type": "TerminalRule",
-      "name": "ID",
+      "name": "Name",
+      "type": {
+        "$type": "ReturnType",
+        "name": "string"
+      },
       "definition": {
         "$type": "RegexToken",
         "regex": "/[A-Za-z_][A-Za-z0-9_]*/",

@@ -16,7 +16,6 @@ export const DetentLanguageMetaData = {
 
 export const parserConfig: IParserConfig = {
     recoveryEnabled: true,
-    maxLookahead: 3,
 };
 
 export const DetentGeneratedSharedModule: Module<LangiumSharedCoreServices, LangiumGeneratedSharedCoreServices> = {

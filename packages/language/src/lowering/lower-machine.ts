@@ -4,7 +4,7 @@
  */
 import {
     type Clock, type EncodingKind, type FlipFlopKind, type Input, type Machine, type Otherwise, type Output, type Reset,
-    type Scenario, type SourceRange, type State, type StateCode, type Transition, type Emit, NO_RANGE,
+    type Scenario, type SourceRange, type State, type StateCode, type Transition, type Emit, FLIPFLOP_KINDS, NO_RANGE,
 } from '@detent/core';
 import * as ast from '../generated/ast.js';
 import { LoweringContext, bitsFor, parseNumber, propertyRange, rangeOf, referenceRange } from './context.js';
@@ -128,6 +128,10 @@ export function lowerMachine(node: ast.Machine, text: string): MachineLowering {
             continue;
         }
         if (m.kind === undefined) continue;
+        if (!(FLIPFLOP_KINDS as readonly string[]).includes(m.kind)) {
+            ctx.report('syntax', `unknown flip-flop '${m.kind}' (one of ${FLIPFLOP_KINDS.join(', ')})`, propertyRange(m, 'kind'));
+            continue;
+        }
         flipflopSeen = true;
         flipflop = m.kind as FlipFlopKind;
         flipflopRange = rangeOf(m);

@@ -30,16 +30,25 @@ export function parserFindings(errors: readonly IRecognitionException[], lines: 
 }
 
 /** Chevrotain lists every viable token sequence; one line is enough in an editor. */
+/** Token names as a user reads them. */
+function tokenWord(token: string): string {
+    const bare = token.replace(/^'|'$/g, '');
+    if (bare === 'Name') return 'a name';
+    if (bare === 'NumberLiteral') return 'a number';
+    return `'${bare}'`;
+}
+
 function shorten(message: string, found: string): string {
     const expecting = /Expecting token of type '([^']+)'/.exec(message);
-    if (expecting) return `expected '${expecting[1]}' but found ${found}`;
+    if (expecting) return `expected ${tokenWord(expecting[1]!)} but found ${found}`;
     const keyword = /Expecting: expecting '([^']+)'/.exec(message);
     if (keyword) return `expected '${keyword[1]}' but found ${found}`;
+    if (/^Expecting end of file/.test(message)) return `unexpected ${found} after the last machine`;
     if (/one of these possible Token sequences/.test(message)) {
-        const options = [...message.matchAll(/\[([^\]]+)\]/g)].map((m) => m[1]!.split(',')[0]!.trim()).slice(0, 6);
-        const unique = [...new Set(options)].map((o) => (o.startsWith("'") ? o : `'${o}'`));
+        const options = [...message.matchAll(/\[([^\]]+)\]/g)].map((m) => m[1]!.split(',')[0]!.trim());
+        const unique = [...new Set(options.map(tokenWord))].slice(0, 6);
         return unique.length > 0 ? `unexpected ${found}; expected ${unique.join(', ')}` : `unexpected ${found}`;
     }
-    const first = message.split('\n')[0]!.trim();
+    const first = message.split('\n')[0]!.trim().replace(/`([^`]*)`/g, "'$1'");
     return first.length > 0 ? first : `unexpected ${found}`;
 }

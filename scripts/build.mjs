@@ -14,9 +14,26 @@ const esmBanner = {
     js: "import { createRequire as __detentCreateRequire } from 'node:module'; const require = __detentCreateRequire(import.meta.url);",
 };
 
+// One copy of the LSP protocol stack in the server bundles. vscode-languageserver ships its own
+// nested vscode-languageserver-protocol/vscode-jsonrpc while Langium imports the root copies; with
+// two copies a ResponseError (e.g. a refused rename, a cancelled request) fails the connection's
+// instanceof test and is sent as a *result*. Resolve every import to the copy the connection uses.
+const lspHome = join(root, 'node_modules', 'vscode-languageserver');
+const singleLspStack = {
+    name: 'single-lsp-stack',
+    setup(b) {
+        if (!existsSync(join(lspHome, 'node_modules'))) return;
+        b.onResolve({ filter: /^vscode-(languageserver-protocol|jsonrpc|languageserver-types)(\/.*)?$/ }, async (args) => {
+            if (args.pluginData === 'single-lsp-stack' || args.resolveDir.startsWith(lspHome)) return undefined;
+            const r = await b.resolve(args.path, { resolveDir: lspHome, kind: args.kind, pluginData: 'single-lsp-stack' });
+            return r.errors.length > 0 ? undefined : { path: r.path, external: r.external };
+        });
+    },
+};
+
 const targets = [
-    { entry: 'packages/cli/src/entry.ts', outfile: 'packages/cli/dist/detent.mjs', format: 'esm', banner: esmBanner },
-    { entry: 'server/src/main.ts', outfile: 'server/dist/server.mjs', format: 'esm', banner: esmBanner },
+    { entry: 'packages/cli/src/entry.ts', outfile: 'packages/cli/dist/detent.mjs', format: 'esm', banner: esmBanner, plugins: [singleLspStack] },
+    { entry: 'server/src/main.ts', outfile: 'server/dist/server.mjs', format: 'esm', banner: esmBanner, plugins: [singleLspStack] },
     { entry: 'client/src/extension.ts', outfile: 'client/dist/extension.cjs', format: 'cjs', external: ['vscode'] },
 ];
 
@@ -36,6 +53,7 @@ for (const t of targets) {
         format: t.format,
         banner: t.banner,
         external: t.external ?? [],
+        plugins: t.plugins ?? [],
         sourcemap: true,
         logLevel: 'warning',
         mainFields: ['module', 'main'],

@@ -10,7 +10,10 @@
 import { AstUtils, CstUtils, GrammarUtils, type AstNode, type CstNode, type LangiumDocument, type Reference } from 'langium';
 import type { CodeActionProvider, LangiumServices } from 'langium/lsp';
 import { type CodeAction, type CodeActionParams, CodeActionKind, type Command, type Diagnostic, type TextEdit, type Range } from 'vscode-languageserver-protocol';
-import type { Machine as ModelMachine, Witness } from '@detent/core';
+import {
+    type Cube, type Machine as ModelMachine, type Witness, FREE, ONE, complement, coverContainsCube, coverUnion, getVar,
+    guardContext, guardCover, inputVariables, mintermCube, withVar,
+} from '@detent/core';
 import * as ast from '../generated/ast.js';
 import type { DetentDocumentModel } from './document-model.js';
 import { failSoft } from './fail-soft.js';
@@ -20,6 +23,37 @@ interface DiagnosticInfo { readonly code?: string; readonly state?: string; read
 function infoOf(d: Diagnostic): DiagnosticInfo {
     const data = (typeof d.data === 'object' && d.data !== null ? d.data : {}) as DiagnosticInfo;
     return { ...data, code: typeof d.code === 'string' ? d.code : data.code };
+}
+
+/**
+ * A guard for the uncovered inputs around a witness: the witness minterm, widened one literal at a
+ * time while it stays inside the part of the input space no guard of the state takes (so the new
+ * row can never overlap an existing one). Bus bits print as `level[2]` / `!level[2]`.
+ */
+export function witnessCubeGuard(machine: ModelMachine, stateIndex: number, inputs: Readonly<Record<string, number>>): string | undefined {
+    const state = machine.states[stateIndex];
+    if (!state) return undefined;
+    const ctx = guardContext(machine);
+    const vars = inputVariables(machine);
+    const taken = state.transitions.reduce<Cube[]>((acc, t) => coverUnion(acc, guardCover(t.guard, ctx)), []);
+    const free = complement(taken, ctx.nvars);
+    const bits = vars.map((v) => {
+        const value = inputs[machine.inputs[v.input]!.name] ?? 0;
+        return ((value >>> v.bit) & 1) as 0 | 1;
+    });
+    let cube = mintermCube(ctx.nvars, (v) => bits[v]!);
+    if (!coverContainsCube(free, cube, ctx.nvars)) return undefined;
+    for (let v = 0; v < ctx.nvars; v++) {
+        const wider = withVar(cube, v, FREE);
+        if (coverContainsCube(free, wider, ctx.nvars)) cube = wider;
+    }
+    const literals: string[] = [];
+    for (let v = 0; v < ctx.nvars; v++) {
+        const field = getVar(cube, v);
+        if (field === FREE) continue;
+        literals.push(field === ONE ? vars[v]!.name : `!${vars[v]!.name}`);
+    }
+    return literals.length ? literals.join(' & ') : '1';
 }
 
 /** A guard true exactly on the witness assignment of the listed inputs: `a & !b & level == 3`. */
@@ -162,7 +196,8 @@ export class DetentCodeActionProvider implements CodeActionProvider {
                     out.push(action(`Add \`otherwise -> ${other.name};\``, [ctx.insertBeforeClose(state.$cstNode, `otherwise -> ${other.name};`)]));
                 }
                 if (info.witness?.inputs && entry) {
-                    const guard = witnessGuard(entry.machine, info.witness.inputs);
+                    const index = entry.machine.states.findIndex((st) => st.name === state.name);
+                    const guard = witnessCubeGuard(entry.machine, index, info.witness.inputs) ?? witnessGuard(entry.machine, info.witness.inputs);
                     const row = `when ${guard} -> ${state.name};`;
                     out.push(action(`Add \`${row}\` for the uncovered inputs`, [ctx.insertBeforeClose(state.$cstNode, row)]));
                 }

@@ -14,6 +14,7 @@ import { DetentCodeActionProvider } from './code-action-provider.js';
 import { DetentRenameProvider } from './rename-provider.js';
 import { DetentSemanticTokenProvider } from './semantic-token-provider.js';
 import { DetentFormatter } from './formatter.js';
+import { DetentCompletionProvider } from './completion-provider.js';
 import { DetentEditorValidator } from './editor-validator.js';
 import { DetentDocumentUpdateHandler } from './document-update-handler.js';
 
@@ -40,6 +41,7 @@ export const DetentLspFeatureModule: Module<DetentServices, PartialLangiumServic
         RenameProvider: (services) => new DetentRenameProvider(services),
         SemanticTokenProvider: (services) => new DetentSemanticTokenProvider(services),
         Formatter: () => new DetentFormatter(),
+        CompletionProvider: (services) => new DetentCompletionProvider(services),
     },
     validation: {
         DocumentValidator: (services) => new DetentEditorValidator(services),

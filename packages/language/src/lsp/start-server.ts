@@ -13,6 +13,13 @@ import { registerDetentRequests } from './custom-requests.js';
 export function startDetentLanguageServer(connection: Connection = createConnection(ProposedFeatures.all)): Connection {
     const { shared, Detent } = createDetentServices({ connection, ...NodeFileSystem });
     registerDetentRequests(connection, shared, Detent);
+    // Severity overrides and the active encoding change diagnostics, hovers and lenses: rebuild open documents.
+    Detent.lsp.DetentSettings.onDidChange(() => {
+        const uris = shared.workspace.LangiumDocuments.all.map((d) => d.uri).toArray();
+        void shared.workspace.WorkspaceLock.write((token) => shared.workspace.DocumentBuilder.update(uris, [], token));
+        void connection.sendRequest('workspace/codeLens/refresh').catch(() => undefined);
+        void connection.sendRequest('workspace/inlayHint/refresh').catch(() => undefined);
+    });
     startLanguageServer(shared);
     return connection;
 }

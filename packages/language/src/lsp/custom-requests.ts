@@ -5,7 +5,7 @@
  */
 import { DocumentState, URI, type LangiumDocument } from 'langium';
 import type { LangiumSharedServices } from 'langium/lsp';
-import type { CancellationToken, Connection } from 'vscode-languageserver';
+import { type CancellationToken, type Connection, ErrorCodes, ResponseError } from 'vscode-languageserver';
 import {
     type EncodingKind, type FlipFlopKind, ENCODING_KINDS, FLIPFLOP_KINDS, compareEncodings, describeFailure, runScenario,
 } from '@detent/core';
@@ -13,7 +13,7 @@ import type { DetentServices } from '../detent-module.js';
 import type { MachineEntry } from './document-model.js';
 import { costTitle, compareMarkdown, equationsDocument, SAFETY_CAUTION } from './machine-text.js';
 import { failSoft } from './fail-soft.js';
-import { diagramOf, exportFiles } from './exports.js';
+import { diagramOf, exportFiles, sourceNameOf, type ExportContext } from './exports.js';
 import {
     COMPARE_REQUEST, type CompareParams, type CompareResult, DIAGRAM_REQUEST, type DiagramParams, type DiagramResult,
     EQUATIONS_REQUEST, type EquationsParams, type EquationsResult, EXPORT_REQUEST, type ExportParams, type ExportResult,
@@ -47,6 +47,15 @@ export function registerDetentRequests(connection: Connection, shared: LangiumSh
             }));
     }
 
+    function contextOf(document: LangiumDocument): ExportContext {
+        return { sourceName: sourceNameOf(document.uri.toString()), sourceText: document.textDocument.getText() };
+    }
+
+    /** Exports follow the file (its own encoding and flip-flop type), not the editor's display choice. */
+    function declaredSynthesis(document: LangiumDocument, entry: MachineEntry) {
+        return model.synthesis(document, entry, { encoding: entry.machine.encoding, flipflop: entry.machine.flipflop }).result;
+    }
+
     function machineOf(document: LangiumDocument, name: string): MachineEntry {
         const entry = model.machineNamed(document, name);
         if (!entry) throw new Error(`no machine '${name}' in ${document.uri.toString()}`);
@@ -58,7 +67,7 @@ export function registerDetentRequests(connection: Connection, shared: LangiumSh
             const codes = model.synthesis(document, entry).result?.assignment.codes;
             return {
                 name: entry.machine.name,
-                dot: entry.blocked ? '' : diagramOf(entry.machine),
+                dot: entry.blocked ? '' : diagramOf(entry.machine, contextOf(document), declaredSynthesis(document, entry)),
                 states: entry.machine.states.map((s, i) => ({ name: s.name, range: s.nameRange, code: codes?.[i] ?? '' })),
                 range: entry.machine.range,
             };
@@ -83,8 +92,12 @@ export function registerDetentRequests(connection: Connection, shared: LangiumSh
 
     handle<ExportParams, ExportResult>(EXPORT_REQUEST, { files: [] }, (document, params) => {
         const entry = machineOf(document, params.machine);
-        if (entry.blocked) throw new Error(`machine ${entry.machine.name} has errors; fix them before exporting`);
-        return { files: exportFiles(entry.machine, params) };
+        if (entry.blocked) throw new ResponseError(ErrorCodes.InvalidRequest, `machine ${entry.machine.name} has errors; fix them before exporting`);
+        try {
+            return { files: exportFiles(entry.machine, params, contextOf(document), declaredSynthesis(document, entry)) };
+        } catch (err) {
+            throw new ResponseError(ErrorCodes.InternalError, `export to ${params.to} failed: ${err instanceof Error ? err.message : String(err)}`);
+        }
     });
 
     handle<ScenariosParams, ScenariosResult>(SCENARIOS_REQUEST, { machines: [] }, (document) => ({

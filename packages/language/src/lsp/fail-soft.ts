@@ -5,6 +5,7 @@
  */
 import { isOperationCancelled } from 'langium';
 import type { LangiumServices, LangiumSharedServices } from 'langium/lsp';
+import { ResponseError } from 'vscode-languageserver';
 
 export function logError(shared: LangiumSharedServices, what: string, err: unknown): void {
     const text = `detent: ${what} failed: ${err instanceof Error ? err.stack ?? err.message : String(err)}`;
@@ -17,7 +18,8 @@ export async function failSoft<T>(services: LangiumServices | LangiumSharedServi
     try {
         return await run();
     } catch (err) {
-        if (isOperationCancelled(err)) throw err;
+        // Cancellation and deliberate error answers (a refused export, …) go to the client as they are.
+        if (isOperationCancelled(err) || err instanceof ResponseError) throw err;
         logError('shared' in services ? services.shared : services, what, err);
         return fallback;
     }

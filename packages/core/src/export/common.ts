@@ -205,7 +205,7 @@ export function coverProducts(cover: readonly Cube[], nvars: number): { empty: b
     return { empty: false, one: false, products };
 }
 
-export function excitationNames(ff: FlipFlopKind, bit: number): string[] {
+export function ffInputNames(ff: FlipFlopKind, bit: number): string[] {
     switch (ff) {
         case 'D': return [`d${bit}`];
         case 'T': return [`t${bit}`];

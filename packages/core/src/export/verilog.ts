@@ -12,7 +12,7 @@ import type { SynthesisResult } from '../synthesis/types.js';
 import { defaultAssignment } from '../simulation/simulator.js';
 import {
     type ExportFile, type ExportOptions, NameAllocator, bits, commentBlock, coverProducts, defaultTarget, docLines,
-    excitationCover, excitationNames, guardText, headerLines, mooreValue, outputCover, portNames, variableRefs, zeroCode,
+    excitationCover, ffInputNames, guardText, headerLines, mooreValue, outputCover, portNames, variableRefs, zeroCode,
 } from './common.js';
 
 export type VerilogDialect = 'verilog' | 'systemverilog';
@@ -296,7 +296,7 @@ function structuralBody(machine: Machine, options: ExportOptions, assignment: St
     out.push(`    // Excitation equations (${synth.flipflop} flip-flops), sums of products over the inputs and ${stateQ}.`);
     const exNames: string[][] = [];
     for (let i = 0; i < w; i++) {
-        const ns = excitationNames(synth.flipflop, i).map((n) => ({ eq: n, hdl: alloc.take(n) }));
+        const ns = ffInputNames(synth.flipflop, i).map((n) => ({ eq: n, hdl: alloc.take(n) }));
         exNames.push(ns.map((n) => n.hdl));
         for (const n of ns) out.push(`    ${net} ${n.hdl};`, `    assign ${n.hdl} = ${sop(excitationCover(synth, n.eq))};`);
     }

@@ -8,7 +8,7 @@ import type { StateAssignment } from '../synthesis/encoding.js';
 import { defaultAssignment } from '../simulation/simulator.js';
 import {
     type ExportFile, type ExportOptions, NameAllocator, bits, commentBlock, coverProducts, defaultTarget, docLines,
-    excitationCover, excitationNames, guardText, headerLines, mooreValue, outputCover, portNames, variableRefs, zeroCode,
+    excitationCover, ffInputNames, guardText, headerLines, mooreValue, outputCover, portNames, variableRefs, zeroCode,
 } from './common.js';
 
 const vtype = (w: number, bus: boolean) => (bus ? `std_logic_vector(${w - 1} downto 0)` : 'std_logic');
@@ -224,7 +224,7 @@ function structural(machine: Machine, options: ExportOptions, assignment: StateA
     out.push(`    signal ${regs.stateQ} : ${vec}${initialValue(machine, assignment, code)};`, `    signal ${regs.stateD} : ${vec};`);
     out.push(...regOutputDecls(machine, regs, !machine.reset));
     const ex: { eq: string; hdl: string }[][] = [];
-    for (let i = 0; i < w; i++) ex.push(excitationNames(synth.flipflop, i).map((n) => ({ eq: n, hdl: alloc.take(n) })));
+    for (let i = 0; i < w; i++) ex.push(ffInputNames(synth.flipflop, i).map((n) => ({ eq: n, hdl: alloc.take(n) })));
     for (const row of ex) for (const n of row) out.push(`    signal ${n.hdl} : std_logic;`);
     out.push('begin');
     out.push(`    -- Excitation equations (${synth.flipflop} flip-flops), sums of products over the inputs and ${regs.stateQ}.`);

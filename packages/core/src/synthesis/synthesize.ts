@@ -307,25 +307,36 @@ function verified(cover: readonly Cube[], on: readonly Cube[], dc: readonly Cube
 
 /**
  * S and R are never both 1 (LANGUAGE.md). Don't-care choices can make them overlap on unused codes
- * or excitation don't-cares; then S is re-minimized with R's cover taken out of its don't-cares
- * (ON_S lies in R's OFF-set, so the result is disjoint from R). Falls back to the ON-sets.
+ * or excitation don't-cares; then one of them is re-minimized with the other's cover taken out of
+ * its don't-cares (ON_S lies in R's OFF-set and vice versa, so the result is disjoint). Both ways
+ * are tried and the cheaper kept, which keeps the choice symmetric under complementing a state bit
+ * (that swaps S and R). Falls back to the ON-sets, which are disjoint by the excitation table.
  */
 function repairSetReset(equations: Equation[], onOf: Map<string, Cube[]>, dcOf: Map<string, Cube[]>, nvars: number, width: number, options: CodesOptions, notes: string[]): void {
+    const remin = (name: string, against: readonly Cube[]): Cube[] | undefined => {
+        const on = onOf.get(name)!;
+        const dc = coverDifference(dcOf.get(name)!, against, nvars);
+        const cover = on.length === 0 ? [] : minimize(on, dc, nvars, { budgetMs: options.minimizeBudgetMs }).cover;
+        return verified(cover, on, dc, nvars) && !coversIntersect(cover, against, nvars) ? cover : undefined;
+    };
     for (let i = 0; i < width; i++) {
         const si = equations.findIndex((e) => e.name === `s${i}`);
         const ri = equations.findIndex((e) => e.name === `r${i}`);
         const s = equations[si]!;
         const r = equations[ri]!;
         if (!coversIntersect(s.cover, r.cover, nvars)) continue;
-        const onS = onOf.get(s.name)!;
-        const dcS = coverDifference(dcOf.get(s.name)!, r.cover, nvars);
-        let cover = onS.length === 0 ? [] : minimize(onS, dcS, nvars, { budgetMs: options.minimizeBudgetMs }).cover;
-        if (!verified(cover, onS, dcS, nvars) || coversIntersect(cover, r.cover, nvars)) {
-            cover = onS;
-            equations[ri] = { ...r, cover: onOf.get(r.name)!, exact: false };
-        }
-        equations[si] = { ...s, cover, exact: false };
-        notes.push(`s${i}/r${i}: don't-care choices overlapped; S was re-minimized so that S·R = 0`);
+        const options2: [Cube[], Cube[]][] = [];
+        const newS = remin(s.name, r.cover);
+        if (newS) options2.push([newS, [...r.cover]]);
+        const newR = remin(r.name, s.cover);
+        if (newR) options2.push([[...s.cover], newR]);
+        options2.push([onOf.get(s.name)!, onOf.get(r.name)!]);
+        const price = (p: [Cube[], Cube[]]) => networkCost(p, nvars, 0);
+        options2.sort((a, b) => price(a).gateInputs - price(b).gateInputs || price(a).literals - price(b).literals);
+        const [sc, rc] = options2[0]!;
+        equations[si] = { ...s, cover: sc, exact: false };
+        equations[ri] = { ...r, cover: rc, exact: false };
+        notes.push(`s${i}/r${i}: don't-care choices overlapped; re-minimized so that S·R = 0`);
     }
 }
 

@@ -2,13 +2,13 @@
  * Exact two-level minimization: every prime implicant of ON ∪ DC, then a minimum-cost cover
  * of the ON-set by those primes (fewest products, then fewest literals).
  *
- * The rows of the covering table are pieces of the ON-set, each split until it lies entirely
- * inside or entirely outside every prime — then "row covered" means "one prime contains it",
- * without enumerating minterms, so the method also works on wide functions with few primes.
+ * The rows of the covering table are pieces of the ON-set that lie entirely inside or entirely
+ * outside every prime — then "row covered" means "one prime contains it". They are generated
+ * lazily (see exactCover), so wide functions with few primes never enumerate minterms.
  */
-import { type Cube, wordMask, wordsFor } from './cube.js';
+import { type Cube, ONE, ZERO, isUniverse, setVarInPlace, universe, wordMask, wordsFor } from './cube.js';
 import { cubeLiteralCount } from './espresso/expand.js';
-import { singleCubeContainment } from './espresso/unate.js';
+import { cubeCofactor, literalCofactor, mostBinate, mostFrequent, phaseCounts, singleCubeContainment } from './espresso/unate.js';
 import { solveCover } from './mincov.js';
 import { allPrimes } from './primes.js';
 
@@ -42,18 +42,69 @@ export function exactCover(
     if (allP === null) return null;
     const onSet = singleCubeContainment(on, words);
     const primes = allP.filter((p) => onSet.some((c) => meets(p, c, nvars)));
-    const rows = refineRows(onSet, primes, nvars, limits.maxRows, limits.deadline);
-    if (rows === null) return null;
-    const table = new Map<string, number[]>();
-    for (const r of rows) {
-        const cols: number[] = [];
-        for (let j = 0; j < primes.length; j++) if (inside(r, primes[j]!, words)) cols.push(j);
-        if (cols.length === 0) throw new Error('exact: a piece of the ON-set lies in no prime');
-        table.set(cols.join(','), cols);
-    }
     const cost = primes.map((p) => weight + cubeLiteralCount(p, nvars));
-    const sol = solveCover({ rows: [...table.values()], columns: primes.length, cost }, upper, limits.deadline);
-    return { cover: sol.columns ? sol.columns.map((j) => primes[j]!) : null, proven: sol.complete };
+    // Rows are added lazily: a relaxed table (fewer rows) has an optimum no dearer than the
+    // real one, so when its optimum covers the whole ON-set it is optimal; otherwise an ON
+    // minterm the optimum misses becomes a new row and the table is solved again.
+    const rows: number[][] = [];
+    const keys = new Set<string>();
+    const addRow = (piece: Cube): void => {
+        const cols: number[] = [];
+        for (let j = 0; j < primes.length; j++) if (inside(piece, primes[j]!, words)) cols.push(j);
+        if (cols.length === 0) throw new Error('exact: a piece of the ON-set lies in no prime');
+        const key = cols.join(',');
+        if (!keys.has(key)) { keys.add(key); rows.push(cols); }
+    };
+    for (const c of onSet) addRow(atomic(c, primes, nvars) ? c : firstMinterm(c, nvars));
+    for (let round = 0; ; round++) {
+        if (rows.length > limits.maxRows) return null;
+        const sol = solveCover({ rows, columns: primes.length, cost }, upper, limits.deadline);
+        if (sol.columns === null) return { cover: null, proven: sol.complete };
+        const chosen = sol.columns.map((j) => primes[j]!);
+        let missing = 0;
+        for (const c of onSet) {
+            const hole = holeIn(cubeCofactor(chosen, c, nvars), nvars);
+            if (hole === null) continue;
+            const m = new Uint32Array(words);
+            for (let w = 0; w < words; w++) m[w] = c[w]! & hole[w]!;
+            addRow(firstMinterm(m, nvars));
+            missing++;
+        }
+        if (missing === 0) return { cover: chosen, proven: sol.complete };
+        if (!sol.complete || Date.now() > limits.deadline) return { cover: null, proven: false };
+    }
+}
+
+/** True when c lies inside or outside every prime (so "covered" means "inside one prime"). */
+function atomic(c: Cube, primes: readonly Cube[], nvars: number): boolean {
+    const words = c.length;
+    for (const p of primes) if (!inside(c, p, words) && meets(c, p, nvars)) return false;
+    return true;
+}
+
+/** The minterm of c whose free variables are 0. */
+function firstMinterm(c: Cube, nvars: number): Cube {
+    const r = c.slice();
+    for (let w = 0; w < r.length; w++) {
+        const free = r[w]! & (r[w]! >>> 1) & 0x55555555 & wordMask(nvars, w);
+        // free field 11 → 01 (the variable is 0)
+        r[w] = (r[w]! & ~(free << 1)) >>> 0;
+    }
+    return r;
+}
+
+/** A cube containing no minterm of f (within the space), or null when f is a tautology. */
+function holeIn(f: readonly Cube[], nvars: number): Cube | null {
+    if (f.length === 0) return universe(nvars);
+    for (const c of f) if (isUniverse(c, nvars)) return null;
+    const k = phaseCounts(f, nvars);
+    let v = mostBinate(k, nvars);
+    if (v < 0) v = mostFrequent(k, nvars);
+    for (const value of [0, 1] as const) {
+        const h = holeIn(literalCofactor(f, v, value, nvars), nvars);
+        if (h !== null) { setVarInPlace(h, v, value === 1 ? ONE : ZERO); return h; }
+    }
+    return null;
 }
 
 function inside(small: Cube, big: Cube, words: number): boolean {
@@ -68,40 +119,4 @@ function meets(a: Cube, b: Cube, nvars: number): boolean {
         if (((x | (x >>> 1)) & m) !== m) return false;
     }
     return true;
-}
-
-/** Splits the ON cubes until each piece is inside or outside every prime; null past maxRows. */
-function refineRows(on: readonly Cube[], primes: readonly Cube[], nvars: number, maxRows: number, deadline: number): Cube[] | null {
-    const words = wordsFor(nvars);
-    let rows: Cube[] = [...on];
-    for (let pi = 0; pi < primes.length; pi++) {
-        const p = primes[pi]!;
-        if ((pi & 15) === 0 && Date.now() > deadline) return null;
-        const next: Cube[] = [];
-        for (const r of rows) {
-            if (inside(r, p, words) || !meets(r, p, nvars)) { next.push(r); continue; }
-            // r − p as disjoint pieces, one per literal of p that r leaves free, then r ∩ p.
-            let prefix = r.slice();
-            for (let w = 0; w < words; w++) {
-                const pl = (p[w]! ^ (p[w]! >>> 1)) & wordMask(nvars, w) & 0x55555555;
-                const rFree = r[w]! & (r[w]! >>> 1) & 0x55555555;
-                let y = pl & rFree;
-                while (y !== 0) {
-                    const b = y & -y;
-                    y ^= b;
-                    const fieldMask = (b | (b << 1)) >>> 0;
-                    const pv = p[w]! & fieldMask;
-                    const piece = prefix.slice();
-                    piece[w] = ((piece[w]! & ~fieldMask) | (~pv & fieldMask)) >>> 0;
-                    next.push(piece);
-                    prefix = prefix.slice();
-                    prefix[w] = ((prefix[w]! & ~fieldMask) | pv) >>> 0;
-                }
-            }
-            next.push(prefix);
-        }
-        if (next.length > maxRows) return null;
-        rows = next;
-    }
-    return rows;
 }

@@ -2,11 +2,12 @@
  * Minimum-cost unate covering by branch and bound: choose columns so that every row has a
  * chosen column, at least total cost.
  *
- * Each node applies the classic reductions to a fixed point — essential columns (a row with a
- * single column), row dominance (a row whose columns include another row's is implied) and
- * column dominance (a column covering a subset of another's rows at no lower cost is never
- * needed) — bounds by a maximal independent set of rows (pairwise without common column: each
- * needs its own column), and branches on the columns of a shortest row.
+ * Each node rebuilds a dense bit table of what is left and applies the classic reductions to
+ * a fixed point — essential columns (a row with a single column), row dominance (a row whose
+ * columns include another row's is implied) and column dominance (a column covering a subset of
+ * another's rows at no lower cost is never needed) — bounds by a maximal independent set of
+ * rows (pairwise without common column: each needs its own column), and branches on the
+ * columns of a shortest row, excluding earlier siblings' columns.
  */
 
 export interface CoverProblem {
@@ -24,168 +25,206 @@ export interface CoverSolution {
     readonly complete: boolean;
 }
 
-interface Node {
-    rows: number[];
-    colActive: Uint8Array;
-    chosen: number[];
-    cost: number;
+class OutOfTime extends Error {}
+
+const EPS = 1e-9;
+
+/** A node's table: rows and columns renumbered densely, both directions as bitsets. */
+interface Table {
+    rows: number[];      // global row ids
+    cols: number[];      // global column ids
+    rowBits: Uint32Array[]; // per local row, over local columns
+    colBits: Uint32Array[]; // per local column, over local rows
+    rowCount: Int32Array;
+    colCount: Int32Array;
 }
 
-class OutOfTime extends Error {}
 
 export function solveCover(p: CoverProblem, upperBound: number, deadline: number): CoverSolution {
     const nCols = p.columns;
-    const cw = (nCols + 31) >>> 5;
-    const rowBits: Uint32Array[] = p.rows.map((cols) => {
-        const b = new Uint32Array(cw);
-        for (const c of cols) b[c >>> 5]! |= 1 << (c & 31);
-        return b;
-    });
     const colRows: number[][] = Array.from({ length: nCols }, () => []);
     p.rows.forEach((cols, r) => { for (const c of cols) colRows[c]!.push(r); });
+    const localCol = new Int32Array(nCols).fill(-1);
+    const localRow = new Int32Array(p.rows.length).fill(-1);
     let best: number[] | null = null;
     let bestCost = upperBound;
     let nodes = 0;
-    const eps = 1e-9;
 
-    const activeColsOf = (r: number, colActive: Uint8Array): number[] => {
-        const out: number[] = [];
-        for (const c of p.rows[r]!) if (colActive[c]) out.push(c);
-        return out;
+    const build = (rows: number[], cols: number[]): Table => {
+        cols.forEach((c, i) => { localCol[c] = i; });
+        rows.forEach((r, i) => { localRow[r] = i; });
+        const cw = (cols.length + 31) >>> 5;
+        const rw = (rows.length + 31) >>> 5;
+        const rowBits = rows.map(() => new Uint32Array(cw));
+        const colBits = cols.map(() => new Uint32Array(rw));
+        const rowCount = new Int32Array(rows.length);
+        const colCount = new Int32Array(cols.length);
+        for (let i = 0; i < rows.length; i++) {
+            for (const c of p.rows[rows[i]!]!) {
+                const j = localCol[c]!;
+                if (j < 0) continue;
+                rowBits[i]![j >>> 5]! |= 1 << (j & 31);
+                colBits[j]![i >>> 5]! |= 1 << (i & 31);
+                rowCount[i]!++;
+                colCount[j]!++;
+            }
+        }
+        for (const c of cols) localCol[c] = -1;
+        for (const r of rows) localRow[r] = -1;
+        return { rows, cols, rowBits, colBits, rowCount, colCount };
     };
 
-    const choose = (n: Node, c: number): void => {
-        n.chosen.push(c);
-        n.cost += p.cost[c]!;
-        n.colActive[c] = 0;
-        const b = Math.floor(c / 32);
-        const bit = 1 << (c & 31);
-        n.rows = n.rows.filter((r) => (rowBits[r]![b]! & bit) === 0);
+    const subset = (a: Uint32Array, b: Uint32Array): boolean => {
+        for (let i = 0; i < a.length; i++) if ((a[i]! & ~b[i]!) !== 0) return false;
+        return true;
     };
 
-    /** Reductions to a fixed point; false when some row can no longer be covered. */
-    const reduceNode = (n: Node): boolean => {
+    /**
+     * Applies the reductions until nothing changes. Returns the table left (possibly empty),
+     * or null when a row has no column left. Chosen columns go to `chosen`, their cost to acc.
+     */
+    const reduceTable = (rows: number[], cols: number[], chosen: number[], acc: { cost: number }): Table | null => {
         for (;;) {
-            let changed = false;
+            const t = build(rows, cols);
+            const nr = t.rows.length;
+            const nc = t.cols.length;
+            if (nr === 0) return t;
             // Essential columns.
-            for (let i = 0; i < n.rows.length; i++) {
-                const cols = activeColsOf(n.rows[i]!, n.colActive);
-                if (cols.length === 0) return false;
-                if (cols.length === 1) { choose(n, cols[0]!); changed = true; i = -1; }
-            }
-            if (n.rows.length === 0) return true;
-            const active = new Uint32Array(cw);
-            for (let c = 0; c < nCols; c++) if (n.colActive[c]) active[c >>> 5]! |= 1 << (c & 31);
-            // Row dominance: drop rows implied by a row with fewer columns.
-            const masked = n.rows.map((r) => {
-                const b = new Uint32Array(cw);
-                const src = rowBits[r]!;
-                let count = 0;
-                for (let i = 0; i < cw; i++) { b[i] = src[i]! & active[i]!; count += popcount(b[i]!); }
-                return { r, b, count };
-            });
-            masked.sort((x, y) => x.count - y.count || x.r - y.r);
-            const keptRows: typeof masked = [];
-            outer: for (const m of masked) {
-                for (const k of keptRows) {
-                    if (k.count > m.count) break;
-                    let sub = true;
-                    for (let i = 0; i < cw; i++) if ((k.b[i]! & ~m.b[i]!) !== 0) { sub = false; break; }
-                    if (sub) { changed = true; continue outer; }
+            const taken = new Uint8Array(nc);
+            let anyEssential = false;
+            for (let i = 0; i < nr; i++) {
+                const k = t.rowCount[i]!;
+                if (k === 0) return null;
+                if (k === 1) {
+                    const bits = t.rowBits[i]!;
+                    for (let w = 0; w < bits.length; w++) if (bits[w] !== 0) { taken[w * 32 + 31 - Math.clz32(bits[w]! & -bits[w]!)] = 1; break; }
+                    anyEssential = true;
                 }
-                keptRows.push(m);
-                // keep keptRows sorted by count (masked is sorted, so pushes keep order)
             }
-            n.rows = keptRows.map((k) => k.r);
-            // Column dominance over the remaining rows.
-            const rw = (n.rows.length + 31) >>> 5;
-            const colsHere: number[] = [];
-            for (let c = 0; c < nCols; c++) if (n.colActive[c]) colsHere.push(c);
-            if (colsHere.length * colsHere.length * rw <= 4_000_000) {
-                const rowIndex = new Map<number, number>();
-                n.rows.forEach((r, i) => rowIndex.set(r, i));
-                const cb = new Map<number, { b: Uint32Array; count: number }>();
-                for (const c of colsHere) {
-                    const b = new Uint32Array(rw);
-                    let count = 0;
-                    for (const r of colRows[c]!) {
-                        const i = rowIndex.get(r);
-                        if (i !== undefined) { b[i >>> 5]! |= 1 << (i & 31); count++; }
-                    }
-                    cb.set(c, { b, count });
+            if (anyEssential) {
+                const coveredRows = new Uint8Array(nr);
+                const keptCols: number[] = [];
+                for (let j = 0; j < nc; j++) {
+                    if (!taken[j]) { keptCols.push(t.cols[j]!); continue; }
+                    chosen.push(t.cols[j]!);
+                    acc.cost += p.cost[t.cols[j]!]!;
+                    const b = t.colBits[j]!;
+                    for (let i = 0; i < nr; i++) if ((b[i >>> 5]! >>> (i & 31)) & 1) coveredRows[i] = 1;
                 }
-                for (const a of colsHere) {
-                    const A = cb.get(a)!;
-                    if (A.count === 0) { n.colActive[a] = 0; changed = true; continue; }
-                    for (const c of colsHere) {
-                        if (c === a || !n.colActive[c]) continue;
-                        const C = cb.get(c)!;
-                        if (C.count < A.count) continue;
-                        if (p.cost[c]! > p.cost[a]! + eps) continue;
-                        if (C.count === A.count && p.cost[c]! >= p.cost[a]! - eps && c > a) {
-                            // Equal rows and cost: keep the lower index only.
-                            let same = true;
-                            for (let i = 0; i < rw; i++) if (A.b[i] !== C.b[i]) { same = false; break; }
-                            if (same) continue;
-                        }
-                        let sub = true;
-                        for (let i = 0; i < rw; i++) if ((A.b[i]! & ~C.b[i]!) !== 0) { sub = false; break; }
-                        if (sub) { n.colActive[a] = 0; changed = true; break; }
+                rows = t.rows.filter((_, i) => !coveredRows[i]);
+                cols = keptCols;
+                continue;
+            }
+            let changed = false;
+            // Row dominance: a row containing another row's columns is implied by it.
+            const order = Array.from({ length: nr }, (_, i) => i).sort((a, b) => t.rowCount[a]! - t.rowCount[b]! || a - b);
+            const dropRow = new Uint8Array(nr);
+            if (nr * nr * t.rowBits[0]!.length <= 8_000_000) {
+                for (let x = 0; x < nr; x++) {
+                    const a = order[x]!;
+                    if (dropRow[a]) continue;
+                    const A = t.rowBits[a]!;
+                    for (let y = x + 1; y < nr; y++) {
+                        const b = order[y]!;
+                        if (dropRow[b]) continue;
+                        if (subset(A, t.rowBits[b]!)) { dropRow[b] = 1; changed = true; }
                     }
                 }
             }
-            if (!changed) return true;
+            // Column dominance: a column whose rows lie within a no-dearer column's is not needed.
+            const dropCol = new Uint8Array(nc);
+            if (nc * nc * t.colBits[0]!.length <= 8_000_000) {
+                const byCount = Array.from({ length: nc }, (_, j) => j).sort((a, b) => t.colCount[b]! - t.colCount[a]! || a - b);
+                for (let a = 0; a < nc; a++) {
+                    if (t.colCount[a] === 0) { dropCol[a] = 1; changed = true; continue; }
+                    const ca = p.cost[t.cols[a]!]!;
+                    for (const b of byCount) {
+                        if (t.colCount[b]! < t.colCount[a]!) break;
+                        if (b === a || dropCol[b]) continue;
+                        const cb = p.cost[t.cols[b]!]!;
+                        if (cb > ca + EPS) continue;
+                        // Twins (same rows, same cost): keep the first.
+                        if (t.colCount[b] === t.colCount[a] && cb >= ca - EPS && b > a) continue;
+                        if (subset(t.colBits[a]!, t.colBits[b]!)) { dropCol[a] = 1; changed = true; break; }
+                    }
+                }
+            }
+            if (!changed) return t;
+            rows = t.rows.filter((_, i) => !dropRow[i]);
+            cols = t.cols.filter((_, j) => !dropCol[j]);
         }
     };
 
-    /** Lower bound: a maximal set of rows no two of which share a column. */
-    const lowerBound = (n: Node): { bound: number; row: number } => {
-        const lens = n.rows.map((r) => ({ r, cols: activeColsOf(r, n.colActive) }));
-        lens.sort((x, y) => x.cols.length - y.cols.length || x.r - y.r);
-        const used = new Uint8Array(nCols);
+    /** Maximal independent set of rows (greedy, shortest rows first): a lower bound. */
+    const lowerBound = (t: Table): number => {
+        const nr = t.rows.length;
+        const order = Array.from({ length: nr }, (_, i) => i).sort((a, b) => t.rowCount[a]! - t.rowCount[b]! || a - b);
+        const used = new Uint32Array(t.rowBits[0]!.length);
         let bound = 0;
-        for (const { cols } of lens) {
-            if (cols.some((c) => used[c])) continue;
+        for (const i of order) {
+            const bits = t.rowBits[i]!;
+            let clash = false;
+            for (let w = 0; w < bits.length; w++) if ((bits[w]! & used[w]!) !== 0) { clash = true; break; }
+            if (clash) continue;
             let m = Infinity;
-            for (const c of cols) { used[c] = 1; if (p.cost[c]! < m) m = p.cost[c]!; }
+            for (let w = 0; w < bits.length; w++) {
+                used[w] = (used[w]! | bits[w]!) >>> 0;
+                let y = bits[w]!;
+                while (y !== 0) {
+                    const b = y & -y;
+                    const c = p.cost[t.cols[w * 32 + 31 - Math.clz32(b)]!]!;
+                    if (c < m) m = c;
+                    y ^= b;
+                }
+            }
             bound += m;
         }
-        return { bound, row: lens.length ? lens[0]!.r : -1 };
+        return bound;
     };
 
-    const search = (n: Node): void => {
-        if ((++nodes & 15) === 0 && Date.now() > deadline) throw new OutOfTime();
-        if (!reduceNode(n)) return;
-        if (n.rows.length === 0) {
-            if (n.cost < bestCost - eps) { bestCost = n.cost; best = [...n.chosen]; }
+    const search = (rows: number[], cols: number[], chosen: number[], cost: number): void => {
+        if ((++nodes & 7) === 0 && Date.now() > deadline) throw new OutOfTime();
+        const acc = { cost };
+        const t = reduceTable(rows, cols, chosen, acc);
+        if (t === null) return;
+        if (acc.cost >= bestCost - EPS) return;
+        if (t.rows.length === 0) {
+            bestCost = acc.cost;
+            best = [...chosen];
             return;
         }
-        const { bound, row } = lowerBound(n);
-        if (n.cost + bound >= bestCost - eps) return;
-        const cols = activeColsOf(row, n.colActive);
-        const coverage = (c: number) => colRows[c]!.length;
-        cols.sort((a, b) => p.cost[a]! - p.cost[b]! || coverage(b) - coverage(a) || a - b);
-        const excluded = n.colActive.slice();
-        for (const c of cols) {
-            const child: Node = { rows: [...n.rows], colActive: excluded.slice(), chosen: [...n.chosen], cost: n.cost };
-            choose(child, c);
-            search(child);
-            excluded[c] = 0;
+        if (acc.cost + lowerBound(t) >= bestCost - EPS) return;
+        // Branch on a shortest row; each child takes one of its columns, later children may
+        // not take the columns of earlier ones.
+        let row = 0;
+        for (let i = 1; i < t.rows.length; i++) if (t.rowCount[i]! < t.rowCount[row]!) row = i;
+        const bits = t.rowBits[row]!;
+        const options: number[] = [];
+        for (let w = 0; w < bits.length; w++) {
+            let y = bits[w]!;
+            while (y !== 0) { const b = y & -y; options.push(w * 32 + 31 - Math.clz32(b)); y ^= b; }
+        }
+        options.sort((a, b) => p.cost[t.cols[a]!]! - p.cost[t.cols[b]!]! || t.colCount[b]! - t.colCount[a]! || a - b);
+        const excluded = new Uint8Array(t.cols.length);
+        for (const j of options) {
+            const c = t.cols[j]!;
+            const colRowsHere = t.colBits[j]!;
+            const childRows = t.rows.filter((_, i) => ((colRowsHere[i >>> 5]! >>> (i & 31)) & 1) === 0);
+            const childCols = t.cols.filter((_, k) => k !== j && !excluded[k]);
+            const base = chosen.length;
+            chosen.push(c);
+            search(childRows, childCols, chosen, acc.cost + p.cost[c]!);
+            chosen.length = base;
+            excluded[j] = 1;
         }
     };
 
-    const root: Node = { rows: p.rows.map((_, i) => i), colActive: new Uint8Array(nCols).fill(1), chosen: [], cost: 0 };
+    const chosenRoot: number[] = [];
     try {
-        search(root);
+        search(p.rows.map((_, i) => i), Array.from({ length: nCols }, (_, j) => j), chosenRoot, 0);
         return { columns: best, cost: bestCost, complete: true };
     } catch (e) {
         if (e instanceof OutOfTime) return { columns: best, cost: bestCost, complete: false };
         throw e;
     }
-}
-
-function popcount(x: number): number {
-    x = x - ((x >>> 1) & 0x55555555);
-    x = (x & 0x33333333) + ((x >>> 2) & 0x33333333);
-    return (((x + (x >>> 4)) & 0x0f0f0f0f) * 0x01010101) >>> 24;
 }

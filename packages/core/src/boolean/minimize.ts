@@ -22,6 +22,10 @@ export interface MinimizeOptions {
     readonly maxPrimes?: number;
     /** Largest covering table (rows) the exact method accepts in 'auto' (default 20000). */
     readonly maxRows?: number;
+    /** In 'auto', the exact search may take this many times the heuristic's time (default 2)… */
+    readonly exactFactor?: number;
+    /** …but at least this many milliseconds (default 4). */
+    readonly exactMinMs?: number;
 }
 
 export interface MinimizeResult {
@@ -45,6 +49,7 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
     // The heuristic gets most of the budget only when exact work is not wanted.
     const heuristicDeadline = method === 'heuristic' ? deadline : start + Math.max(1, budget * 0.5);
     const h = espressoHeuristic(onCubes, dcCubes, nvars, { deadline: heuristicDeadline });
+    const heuristicMs = Date.now() - start;
     let cover = h.cover;
     if (method === 'heuristic') return { cover, exact: false };
     const hc = coverCost(cover, nvars);
@@ -54,7 +59,9 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
     const outcome = exactCover(onCubes, h.target.care, nvars, weight, upper, {
         maxPrimes: big ? 1_000_000 : options.maxPrimes ?? 4000,
         maxRows: big ? 10_000_000 : options.maxRows ?? 20000,
-        deadline,
+        // In 'auto' the exact search gets time in proportion to the heuristic's (it is an
+        // improvement step); 'exact' may use the whole budget.
+        deadline: big ? deadline : Math.min(deadline, Date.now() + Math.max(options.exactMinMs ?? 4, (options.exactFactor ?? 2) * heuristicMs)),
     });
     if (outcome === null) return { cover, exact: false };
     if (outcome.cover && cheaper(coverCost(outcome.cover, nvars), hc)) cover = outcome.cover;

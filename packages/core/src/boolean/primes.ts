@@ -38,7 +38,9 @@ function primesOf(f: Cube[], nvars: number, masks: Uint32Array, b: PrimeBudget):
     if (v < 0) return f;
     const p0 = primesOf(singleCubeContainment(literalCofactor(f, v, 0, nvars), words), nvars, masks, b);
     const p1 = primesOf(singleCubeContainment(literalCofactor(f, v, 1, nvars), words), nvars, masks, b);
-    if (p0.length * p1.length > b.limit * 40) throw new TooManyPrimes();
+    // The merge costs about |P0|·|P1| intersections, each checked against the primes kept.
+    if (p0.length * p1.length * (p0.length + p1.length) > 40_000_000) throw new TooManyPrimes();
+    if (Date.now() > b.deadline) throw new TooManyPrimes();
     const w = v >>> 4;
     const shift = (v & 15) << 1;
     const low = 0x55555555;

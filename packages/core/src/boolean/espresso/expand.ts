@@ -61,20 +61,19 @@ function needBits(cur: Cube, d: Cube, w: number, mask: number): number {
     return (diff | (diff >>> 1)) & mask;
 }
 
-interface Candidate { readonly j: number; readonly need: number }
-
-function candidatesByDistance(i: number, f: readonly Cube[], covered: Uint8Array, cur: Cube, masks: Uint32Array): Candidate[] {
+/** Uncovered cubes other than i, nearest to cur first (fewest raises to reach them). */
+function candidatesByDistance(i: number, f: readonly Cube[], covered: Uint8Array, cur: Cube, masks: Uint32Array): Float64Array {
     const words = masks.length;
-    const list: Candidate[] = [];
+    const keys = new Float64Array(f.length);
+    let k = 0;
     for (let j = 0; j < f.length; j++) {
         if (covered[j] || j === i) continue;
         const d = f[j]!;
         let n = 0;
         for (let w = 0; w < words; w++) n += popcount32(needBits(cur, d, w, masks[w]!));
-        list.push({ j, need: n });
+        keys[k++] = n * 4194304 + j;
     }
-    list.sort((a, b) => a.need - b.need || a.j - b.j);
-    return list;
+    return keys.subarray(0, k).sort();
 }
 
 function expandAgainstOff(
@@ -105,49 +104,57 @@ function expandAgainstOff(
     }
 
     // Drops rows already kept apart by a lowered variable; a row with one raisable variable left
-    // forces that variable to stay (it becomes lowered).
+    // forces that variable to stay (it becomes lowered). One pass suffices: lowering a variable
+    // satisfies every row holding it and leaves the others as they were.
     const settleRows = (): void => {
-        let changed = true;
-        while (changed) {
-            changed = false;
-            let k = 0;
-            for (let a = 0; a < nActive; a++) {
-                const r = active[a]!;
-                const base = r * words;
-                let hit = false;
-                for (let w = 0; w < words; w++) if ((rowMask[base + w]! & lowered[w]!) !== 0) { hit = true; break; }
-                if (hit) continue;
-                let count = 0;
-                let bw = -1;
-                let bit = 0;
-                for (let w = 0; w < words && count < 2; w++) {
-                    const y = rowMask[base + w]! & free[w]!;
-                    if (y !== 0) {
-                        count += (y & (y - 1)) === 0 ? 1 : 2;
-                        bw = w;
-                        bit = y;
-                    }
+        let k = 0;
+        let loweredSome = false;
+        for (let a = 0; a < nActive; a++) {
+            const r = active[a]!;
+            const base = r * words;
+            let hit = false;
+            for (let w = 0; w < words; w++) if ((rowMask[base + w]! & lowered[w]!) !== 0) { hit = true; break; }
+            if (hit) continue;
+            let count = 0;
+            let bw = -1;
+            let bit = 0;
+            for (let w = 0; w < words && count < 2; w++) {
+                const y = rowMask[base + w]! & free[w]!;
+                if (y !== 0) {
+                    count += (y & (y - 1)) === 0 ? 1 : 2;
+                    bw = w;
+                    bit = y;
                 }
-                if (count === 0) throw new Error('expand: expansion met the OFF-set');
-                if (count === 1) {
-                    lowered[bw] = (lowered[bw]! | bit) >>> 0;
-                    free[bw] = (free[bw]! & ~bit) >>> 0;
-                    changed = true;
-                    continue;
-                }
-                active[k++] = r;
             }
-            nActive = k;
+            if (count === 0) throw new Error('expand: expansion met the OFF-set');
+            if (count === 1) {
+                lowered[bw] = (lowered[bw]! | bit) >>> 0;
+                free[bw] = (free[bw]! & ~bit) >>> 0;
+                loweredSome = true;
+                continue;
+            }
+            active[k++] = r;
         }
+        nActive = k;
+        if (!loweredSome) return;
+        // Rows kept earlier in the pass may hold a variable lowered later: drop those too.
+        k = 0;
+        for (let a = 0; a < nActive; a++) {
+            const base = active[a]! * words;
+            let hit = false;
+            for (let w = 0; w < words; w++) if ((rowMask[base + w]! & lowered[w]!) !== 0) { hit = true; break; }
+            if (!hit) active[k++] = active[a]!;
+        }
+        nActive = k;
     };
     settleRows();
 
     // Raise towards other cubes of the cover, nearest first, while the result stays off the OFF-set.
     if (nActive > 0) {
         const need = new Uint32Array(words);
-        for (const cand of candidatesByDistance(i, f, covered, cur, masks)) {
+        for (const key of candidatesByDistance(i, f, covered, cur, masks)) {
             if (nActive === 0) break;
-            const d = f[cand.j]!;
+            const d = f[key % 4194304]!;
             let blocked = false;
             let any = 0;
             for (let w = 0; w < words; w++) {
@@ -174,29 +181,26 @@ function expandAgainstOff(
 
     // What is left: keep a small set of variables that separates every remaining OFF cube
     // (greedy column cover of the blocking matrix), raise everything else.
+    const counts = new Int32Array(words * 16);
     while (nActive > 0) {
-        let bestW = -1;
-        let bestBit = 0;
-        let bestCount = 0;
-        const counts = new Map<number, number>();
+        counts.fill(0);
         for (let a = 0; a < nActive; a++) {
             const base = active[a]! * words;
             for (let w = 0; w < words; w++) {
                 let y = rowMask[base + w]! & free[w]!;
                 while (y !== 0) {
                     const b = y & -y;
-                    const key = w * 32 + (31 - Math.clz32(b));
-                    const n = (counts.get(key) ?? 0) + 1;
-                    counts.set(key, n);
-                    if (n > bestCount || (n === bestCount && key < bestW * 32 + (31 - Math.clz32(bestBit)))) {
-                        bestCount = n; bestW = w; bestBit = b;
-                    }
+                    counts[w * 16 + ((31 - Math.clz32(b)) >>> 1)]!++;
                     y ^= b;
                 }
             }
         }
-        lowered[bestW] = (lowered[bestW]! | bestBit) >>> 0;
-        free[bestW] = (free[bestW]! & ~bestBit) >>> 0;
+        let best = 0;
+        for (let v = 1; v < counts.length; v++) if (counts[v]! > counts[best]!) best = v;
+        const bw = best >>> 4;
+        const bit = 1 << ((best & 15) << 1);
+        lowered[bw] = (lowered[bw]! | bit) >>> 0;
+        free[bw] = (free[bw]! & ~bit) >>> 0;
         settleRows();
     }
     for (let w = 0; w < words; w++) cur[w] = (cur[w]! | free[w]! | (free[w]! << 1)) >>> 0;
@@ -234,9 +238,9 @@ function expandByContainment(
     const words = masks.length;
     let cur = f[i]!.slice();
     let checks = 0;
-    for (const cand of candidatesByDistance(i, f, covered, cur, masks)) {
+    for (const key of candidatesByDistance(i, f, covered, cur, masks)) {
         if (checks >= MAX_NEIGHBOUR_CHECKS) break;
-        const d = f[cand.j]!;
+        const d = f[key % 4194304]!;
         const s = new Uint32Array(words);
         let grows = false;
         for (let w = 0; w < words; w++) { s[w] = (cur[w]! | d[w]!) >>> 0; if (s[w] !== cur[w]) grows = true; }

@@ -5,11 +5,11 @@
  *
  * Cost is (products, literals), compared in that order.
  */
-import { type Cube, wordsFor } from '../cube.js';
+import { type Cube, wordMask, wordsFor } from '../cube.js';
 import { type ExpandTarget, cubeLiteralCount, expand } from './expand.js';
 import { irredundant } from './irredundant.js';
 import { reduce, reduceCube } from './reduce.js';
-import { complementWithin, singleCubeContainment } from './unate.js';
+import { complementWithin, coverHasCube, popcount32, singleCubeContainment } from './unate.js';
 
 export interface CoverCost { readonly products: number; readonly literals: number }
 
@@ -45,6 +45,20 @@ export function espressoHeuristic(on: readonly Cube[], dc: readonly Cube[], nvar
     if (f.length === 0) return { cover: [], target };
     f = expand(f, nvars, target);
     f = irredundant(f, dc, nvars);
+    // Essential primes are in every minimal cover: set them aside as don't-cares for the loop,
+    // which then works on fewer cubes.
+    const essentials = essentialPrimes(f, dc, nvars);
+    if (essentials.length > 0) {
+        const rest = f.filter((c) => !essentials.includes(c));
+        const inner = improve(rest, [...dc, ...essentials], nvars, target, options.deadline);
+        return { cover: [...essentials, ...inner], target };
+    }
+    return { cover: improve(f, dc, nvars, target, options.deadline), target };
+}
+
+/** The REDUCE / EXPAND / IRREDUNDANT loop with LAST_GASP on a cover of primes. */
+function improve(f: Cube[], dc: readonly Cube[], nvars: number, target: ExpandTarget, deadline: number): Cube[] {
+    const options = { deadline };
     let cost = coverCost(f, nvars);
     for (;;) {
         while (Date.now() < options.deadline) {
@@ -61,7 +75,45 @@ export function espressoHeuristic(on: readonly Cube[], dc: readonly Cube[], nvar
         f = g;
         cost = gc;
     }
-    return { cover: f, target };
+    return f;
+}
+
+/**
+ * The essential primes of a prime cover f (with don't-cares dc): p is essential exactly when
+ * the consensus of p with the other cubes of f ∪ dc does not cover p.
+ */
+export function essentialPrimes(f: readonly Cube[], dc: readonly Cube[], nvars: number): Cube[] {
+    const words = wordsFor(nvars);
+    const all = [...f, ...dc];
+    const out: Cube[] = [];
+    const h: Cube[] = [];
+    for (let i = 0; i < f.length; i++) {
+        const p = f[i]!;
+        h.length = 0;
+        for (let j = 0; j < all.length; j++) {
+            if (j === i) continue;
+            const q = all[j]!;
+            let conflicts = 0;
+            let cw = 0;
+            let cbits = 0;
+            const r = new Uint32Array(words);
+            for (let w = 0; w < words; w++) {
+                const x = (p[w]! & q[w]!) >>> 0;
+                r[w] = x;
+                const empty = ~(x | (x >>> 1)) & 0x55555555 & wordMask(nvars, w);
+                if (empty !== 0) {
+                    conflicts += popcount32(empty);
+                    cw = w;
+                    cbits = empty;
+                }
+            }
+            if (conflicts > 1) continue;
+            if (conflicts === 1) r[cw] = (r[cw]! | cbits | (cbits << 1)) >>> 0;
+            h.push(r);
+        }
+        if (!coverHasCube(h, p, nvars)) out.push(p);
+    }
+    return out;
 }
 
 /**

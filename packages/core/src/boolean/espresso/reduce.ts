@@ -11,7 +11,7 @@ import { complementSupercube, cubeCofactor } from './unate.js';
 export function reduceCube(f: readonly Cube[], i: number, dc: readonly Cube[], nvars: number): Cube | null {
     const c = f[i]!;
     const cof: Cube[] = [];
-    for (let j = 0; j < f.length; j++) if (j !== i) cubeCofactor([f[j]!], c, nvars, cof);
+    cubeCofactor(i === 0 ? f.slice(1) : i === f.length - 1 ? f.slice(0, i) : [...f.slice(0, i), ...f.slice(i + 1)], c, nvars, cof);
     cubeCofactor(dc, c, nvars, cof);
     const s = complementSupercube(cof, nvars);
     if (s === null) return null;

@@ -95,11 +95,25 @@ export function literalCofactor(f: readonly Cube[], v: number, value: 0 | 1, nva
 
 /** Cofactor of every cube of f with respect to cube p (cubes disjoint from p dropped). */
 export function cubeCofactor(f: readonly Cube[], p: Cube, nvars: number, out: Cube[] = []): Cube[] {
-    const words = wordsFor(nvars);
+    const masks = masksFor(nvars);
+    const words = masks.length;
+    if (words === 1) {
+        // One-word fast path (up to 16 variables).
+        const m = masks[0]! & LOW;
+        const p0 = p[0]!;
+        const lit = literalBits(p0, masks[0]!);
+        const litMask = (lit | (lit << 1)) >>> 0;
+        for (const c of f) {
+            const x = c[0]! & p0;
+            if (((x | (x >>> 1)) & m) !== m) continue;
+            const k = new Uint32Array(1);
+            k[0] = c[0]! | litMask;
+            out.push(k);
+        }
+        return out;
+    }
     const litMask = new Uint32Array(words);
-    const masks = new Uint32Array(words);
     for (let w = 0; w < words; w++) {
-        masks[w] = wordMask(nvars, w);
         const lit = literalBits(p[w]!, masks[w]!);
         litMask[w] = (lit | (lit << 1)) >>> 0;
     }
@@ -121,10 +135,16 @@ function isUniverseCube(c: Cube, masks: Uint32Array): boolean {
     return true;
 }
 
-function masksFor(nvars: number): Uint32Array {
+const maskCache = new Map<number, Uint32Array>();
+
+/** wordMask for every word, cached per variable count (callers must not modify it). */
+export function masksFor(nvars: number): Uint32Array {
+    let m = maskCache.get(nvars);
+    if (m) return m;
     const words = wordsFor(nvars);
-    const m = new Uint32Array(words);
+    m = new Uint32Array(words);
     for (let w = 0; w < words; w++) m[w] = wordMask(nvars, w);
+    maskCache.set(nvars, m);
     return m;
 }
 
@@ -304,20 +324,26 @@ function mergeHalves(c0: Cube[], c1: Cube[], v: number, masks: Uint32Array): Cub
         return false;
     };
     const small = c0.length * c1.length <= 250_000;
-    const r: Cube[] = [];
+    // Only lifted cubes (no literal on x) can contain others: the halves are each free of
+    // contained cubes, and a cube with a literal on x cannot contain one without.
+    const lifted: Cube[] = [];
+    const fixed: Cube[] = [];
     for (const a of c0) {
-        if (small && containedIn(a, c1)) { r.push(a); continue; }
+        if (small && containedIn(a, c1)) { lifted.push(a); continue; }
         const k = a.slice();
         k[w] = ((k[w]! & ~(3 << shift)) | (ZERO << shift)) >>> 0;
-        r.push(k);
+        fixed.push(k);
     }
-    c1.forEach((b) => {
-        if (small && containedIn(b, c0)) { r.push(b); return; }
+    for (const b of c1) {
+        if (small && containedIn(b, c0)) { lifted.push(b); continue; }
         const k = b.slice();
         k[w] = ((k[w]! & ~(3 << shift)) | (ONE << shift)) >>> 0;
-        r.push(k);
-    });
-    return singleCubeContainment(r, words);
+        fixed.push(k);
+    }
+    if (lifted.length === 0) return fixed;
+    const kept = singleCubeContainment(lifted, words);
+    for (const k of fixed) if (!containedIn(k, kept)) kept.push(k);
+    return kept;
 }
 
 /** Removes cubes contained in another cube of the list (and duplicates). */

@@ -148,7 +148,7 @@ function behavioralBody(machine: Machine, options: ExportOptions, assignment: St
     // Next state and combinational outputs.
     const g = verilogGuard(machine);
     out.push(`    // Next state; Moore outputs from the state, Mealy outputs from the state and the inputs.`);
-    out.push(`    always @* begin`);
+    out.push(`    ${sv ? 'always_comb' : 'always @*'} begin`);
     out.push(`        ${names.stateD} = ${names.stateQ};`);
     machine.outputs.forEach((o, k) => { if (!o.registered) out.push(`        ${o.name} = ${literal(0, o.width)};`); });
     out.push(`        case (${names.stateQ})`);
@@ -200,7 +200,7 @@ function behavioralBody(machine: Machine, options: ExportOptions, assignment: St
 
     if (registered.some(Boolean)) {
         out.push('    // Registered outputs load the Moore value of the next state.');
-        out.push(`    always @* begin`);
+        out.push(`    ${sv ? 'always_comb' : 'always @*'} begin`);
         machine.outputs.forEach((o, k) => { if (o.registered) out.push(`        ${names.regNext[k]} = ${literal(0, o.width)};`); });
         out.push(`        case (${names.stateD})`);
         machine.states.forEach((s, i) => {

@@ -89,6 +89,11 @@ export class DiagramPanel implements vscode.Disposable {
         }
         const machines: RenderedMachine[] = [];
         for (const m of result.machines) {
+            if (m.dot.trim() === '') {
+                // The server sends no DOT for a machine it cannot draw (errors in it, or no drawing available).
+                machines.push({ name: m.name, error: 'No diagram for this machine right now: fix the errors shown in Problems.' });
+                continue;
+            }
             try {
                 machines.push({ name: m.name, svg: sanitizeSvg(await dotToSvg(m.dot)) });
             } catch (e) {

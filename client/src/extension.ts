@@ -2,6 +2,9 @@
 // state-diagram webview, the Test Explorer and the status bar. No analysis happens here.
 import * as vscode from 'vscode';
 import type { LanguageClient } from 'vscode-languageclient/node';
+import {
+    COMPARE_ENCODINGS_COMMAND, EXPORT_COMMAND, RUN_SCENARIO_COMMAND, SHOW_EQUATIONS_COMMAND, type LensCommandArgs,
+} from '../../packages/language/src/lsp/protocol.js';
 import { DiagramPanel } from './diagram.js';
 import { exportCommand, type ExportArgs } from './exportCommand.js';
 import { createLanguageClient } from './languageClient.js';
@@ -44,9 +47,27 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
             const ed = activeDetentEditor();
             if (ed) diagram.show(ed.document);
         })),
-        vscode.commands.registerCommand('detent.showEquations', guarded(output, 'Show Equations', () => showEquations(requests, reports))),
-        vscode.commands.registerCommand('detent.compareEncodings', guarded(output, 'Compare Encodings', () => compareEncodings(requests, reports))),
-        vscode.commands.registerCommand('detent.export', guarded(output, 'Export', (args?: ExportArgs) => exportCommand(requests, output, args ?? {}))),
+        // These three are also the server's code-lens commands (protocol.ts): they take LensCommandArgs.
+        vscode.commands.registerCommand(SHOW_EQUATIONS_COMMAND, guarded(output, 'Show Equations', (args?: LensCommandArgs) => showEquations(requests, reports, args))),
+        vscode.commands.registerCommand(COMPARE_ENCODINGS_COMMAND, guarded(output, 'Compare Encodings', (args?: LensCommandArgs) => compareEncodings(requests, reports, args))),
+        vscode.commands.registerCommand(EXPORT_COMMAND, guarded(output, 'Export', (args?: ExportArgs) => exportCommand(requests, output, args ?? {}))),
+        vscode.commands.registerCommand(RUN_SCENARIO_COMMAND, guarded(output, 'Run Scenario', async (args?: LensCommandArgs) => {
+            if (!args?.uri || !args.machine) return undefined;
+            const item = await tests.itemFor(vscode.Uri.parse(args.uri), args.machine, args.scenario);
+            if (!item) {
+                void vscode.window.showWarningMessage(`No scenario ${args.scenario ?? ''} in ${args.machine}.`);
+                return undefined;
+            }
+            const cts = new vscode.CancellationTokenSource();
+            try {
+                const r = await tests.run(new vscode.TestRunRequest([item]), cts.token);
+                const say = r.failed === 0 ? vscode.window.showInformationMessage : vscode.window.showWarningMessage;
+                void say(`Detent scenarios: ${r.passed} passed, ${r.failed} failed`);
+                return r;
+            } finally {
+                cts.dispose();
+            }
+        })),
         vscode.commands.registerCommand('detent.runScenarios', guarded(output, 'Run Scenarios', async () => {
             const ed = activeDetentEditor();
             if (!ed) return undefined;

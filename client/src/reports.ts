@@ -2,7 +2,17 @@
 // they never touch the disk and cannot be saved over anything.
 import * as vscode from 'vscode';
 import { readSettings } from './languageClient.js';
+import type { LensCommandArgs } from '../../packages/language/src/lsp/protocol.js';
 import { activeDetentEditor, pickMachine, type DetentRequests } from './requests.js';
+
+/** The document and machine a report is for: given by a code lens, or the active editor's. */
+async function target(requests: DetentRequests, args?: Partial<LensCommandArgs>): Promise<{ uri: string; machine: string } | undefined> {
+    if (args?.uri && args.machine) return { uri: args.uri, machine: args.machine };
+    const ed = activeDetentEditor();
+    if (!ed) return undefined;
+    const machine = await pickMachine(requests, ed, args?.machine);
+    return machine ? { uri: ed.document.uri.toString(), machine } : undefined;
+}
 
 export const REPORT_SCHEME = 'detent-report';
 
@@ -29,14 +39,13 @@ export class ReportDocuments implements vscode.TextDocumentContentProvider, vsco
     }
 }
 
-export async function showEquations(requests: DetentRequests, reports: ReportDocuments): Promise<void> {
-    const ed = activeDetentEditor();
-    if (!ed) return;
-    const machine = await pickMachine(requests, ed);
-    if (!machine) return;
+export async function showEquations(requests: DetentRequests, reports: ReportDocuments, args?: Partial<LensCommandArgs>): Promise<void> {
+    const t = await target(requests, args);
+    if (!t) return;
+    const { machine } = t;
     const s = readSettings();
     const { text } = await requests.equations({
-        uri: ed.document.uri.toString(),
+        uri: t.uri,
         machine,
         encoding: s.encoding === 'machine' ? undefined : s.encoding,
         flipflop: s.flipflop === 'machine' ? undefined : s.flipflop,
@@ -44,12 +53,11 @@ export async function showEquations(requests: DetentRequests, reports: ReportDoc
     await reports.open(`${machine} equations.txt`, text, 'plaintext');
 }
 
-export async function compareEncodings(requests: DetentRequests, reports: ReportDocuments): Promise<void> {
-    const ed = activeDetentEditor();
-    if (!ed) return;
-    const machine = await pickMachine(requests, ed);
-    if (!machine) return;
-    const { markdown } = await requests.compare({ uri: ed.document.uri.toString(), machine });
+export async function compareEncodings(requests: DetentRequests, reports: ReportDocuments, args?: Partial<LensCommandArgs>): Promise<void> {
+    const t = await target(requests, args);
+    if (!t) return;
+    const { machine } = t;
+    const { markdown } = await requests.compare({ uri: t.uri, machine });
     const shown = await reports.open(`${machine} encodings.md`, markdown, 'markdown');
     // The rendered table reads better than the Markdown source when the built-in preview is there.
     try {

@@ -90,6 +90,13 @@ export class ScenarioTests implements vscode.Disposable {
         return f ? [f] : [];
     }
 
+    /** The item of one scenario (or of the whole machine when `scenario` is omitted). */
+    async itemFor(uri: vscode.Uri, machine: string, scenario?: string): Promise<vscode.TestItem | undefined> {
+        await this.refreshDocument(uri);
+        const m = this.controller.items.get(uri.toString())?.children.get(`${uri.toString()}#${machine}`);
+        return scenario === undefined ? m : m?.children.get(`${uri.toString()}#${machine}/${scenario}`);
+    }
+
     private leaves(items: readonly vscode.TestItem[], exclude: readonly vscode.TestItem[]): vscode.TestItem[] {
         const out: vscode.TestItem[] = [];
         const skip = new Set(exclude.map((x) => x.id));

@@ -304,15 +304,32 @@ async function session({ entry, vsix, examples, trust, checks }) {
         await browser?.close().catch(() => {});
         server?.close();
         if (server) writeFileSync(join(shots, `${label}-code-server.log`), server.output());
+        saveDetentLogs(profile.userData, label);
         removeProfile(profile);
     }
+}
+
+/** Copies the extension's "Detent" output channel logs (client and server messages) next to the screenshots. */
+function saveDetentLogs(userData, label) {
+    const found = [];
+    const walk = (d) => {
+        if (!existsSync(d)) return;
+        for (const n of readdirSync(d)) {
+            const p = join(d, n);
+            if (statSync(p).isDirectory()) walk(p);
+            else if (/Detent/i.test(n) && n.endsWith('.log')) found.push(p);
+        }
+    };
+    walk(join(userData, 'logs'));
+    found.forEach((f, i) => copyFileSync(f, join(shots, `${label}-detent-output${i ? `-${i}` : ''}.log`)));
 }
 
 /** Runs both sessions; returns { passed, failed }. */
 export async function runVsCodeHostE2E({ entry, vsix, examples }) {
     const checks = new Checks();
     mkdirSync(shots, { recursive: true });
-    for (const trust of [true, false]) {
+    const only = process.env.DETENT_E2E_ONLY; // 'trusted' | 'restricted' while debugging
+    for (const trust of [true, false].filter((t) => !only || only === (t ? 'trusted' : 'restricted'))) {
         try {
             await withTimeout(session({ entry, vsix, examples, trust, checks }), 8 * 60_000, `${trust ? 'trusted' : 'restricted'} session`);
         } catch (e) {

@@ -17,7 +17,18 @@ import {
     ConfigurationRequest, RegistrationRequest, WorkDoneProgressCreateRequest,
 } from 'vscode-languageserver-protocol/node';
 
-export const ROOT = join(dirname(fileURLToPath(import.meta.url)), '..', '..');
+/** The repository root: the first folder upwards holding scripts/build.mjs (this file may run from a bundle in node_modules/.cache). */
+function findRoot(): string {
+    for (const start of [dirname(fileURLToPath(import.meta.url)), process.cwd()]) {
+        for (let dir = start; ; dir = dirname(dir)) {
+            if (existsSync(join(dir, 'scripts', 'build.mjs')) && existsSync(join(dir, 'server'))) return dir;
+            if (dirname(dir) === dir) break;
+        }
+    }
+    throw new Error('cannot find the repository root (scripts/build.mjs)');
+}
+
+export const ROOT = findRoot();
 const BUNDLE = join(ROOT, 'server', 'dist', 'server.mjs');
 
 function sleep(ms: number): Promise<void> {
@@ -56,6 +67,8 @@ export async function serverBundle(): Promise<string> {
 export interface StartOptions {
     /** Sent as initializationOptions and answered to workspace/configuration for section `detent`. */
     readonly settings?: Record<string, unknown>;
+    /** 'server' (default): server/dist/server.mjs --stdio; 'cli': packages/cli/dist/detent.mjs lsp --stdio. */
+    readonly via?: 'server' | 'cli';
 }
 
 export class LspSession {
@@ -72,7 +85,8 @@ export class LspSession {
 
     static async start(options: StartOptions = {}): Promise<LspSession> {
         const bundle = await serverBundle();
-        const child = spawn(process.execPath, [bundle, '--stdio'], { cwd: ROOT, stdio: ['pipe', 'pipe', 'pipe'] });
+        const args = options.via === 'cli' ? [join(ROOT, 'packages', 'cli', 'dist', 'detent.mjs'), 'lsp', '--stdio'] : [bundle, '--stdio'];
+        const child = spawn(process.execPath, args, { cwd: ROOT, stdio: ['pipe', 'pipe', 'pipe'] });
         const connection = createProtocolConnection(new StreamMessageReader(child.stdout!), new StreamMessageWriter(child.stdin!));
         const session = new LspSession(child, connection, { encoding: 'machine', flipflop: 'machine', severity: {}, ...(options.settings ?? {}) });
         child.stderr!.on('data', (d: Buffer) => session.stderr.push(d.toString()));
@@ -144,6 +158,18 @@ export class LspSession {
         const version = (this.versions.get(uri) ?? 1) + 1;
         this.versions.set(uri, version);
         void this.connection.sendNotification(DidChangeTextDocumentNotification.type, { textDocument: { uri, version }, contentChanges: [{ text }] });
+    }
+
+    /** Resolves with the first publication (the latest one included) that satisfies `accept`. */
+    async waitFor(uri: string, accept: (d: Diagnostic[]) => boolean, timeoutMs = 20_000): Promise<Diagnostic[]> {
+        const deadline = Date.now() + timeoutMs;
+        for (;;) {
+            const list = this.diagnostics.get(uri) ?? [];
+            const last = list[list.length - 1];
+            if (last && accept(last.diagnostics)) return last.diagnostics;
+            if (Date.now() > deadline) throw new Error(`diagnostics for ${uri} never satisfied the condition; last: ${JSON.stringify(last?.diagnostics.map((d) => d.code))}`);
+            await sleep(25);
+        }
     }
 
     /** Waits until `ms` pass without new diagnostics for the document, then returns the last ones. */

@@ -4,7 +4,7 @@
  */
 import type { Module } from 'langium';
 import type { LangiumSharedServices, PartialLangiumServices, PartialLangiumSharedServices } from 'langium/lsp';
-import type { DetentServices } from '../detent-module.js';
+import type { DetentAddedServices, DetentServices } from '../detent-module.js';
 import { DetentDocumentModel } from './document-model.js';
 import { DetentSettingsStore } from './settings.js';
 import { DetentHoverProvider } from './hover-provider.js';
@@ -26,7 +26,11 @@ export interface DetentLspAddedServices {
     };
 }
 
-export const DetentLspFeatureModule: Module<DetentServices, PartialLangiumServices & { lsp: Partial<DetentLspAddedServices['lsp']> }> = {
+export const DetentLspFeatureModule: Module<DetentServices, PartialLangiumServices & { lsp: Partial<DetentLspAddedServices['lsp']> } & Partial<DetentAddedServices>> = {
+    // While typing, the synthesis-based as-built checks run later, at idle time (asbuilt-diagnostics.ts).
+    detent: {
+        CheckOptions: () => ({ skipAsBuilt: true }),
+    },
     lsp: {
         DetentSettings: (services) => {
             const store = new DetentSettingsStore();

@@ -8,11 +8,13 @@ import { NodeFileSystem } from 'langium/node';
 import { type Connection, ProposedFeatures, createConnection } from 'vscode-languageserver/node';
 import { createDetentServices } from '../detent-module.js';
 import { registerDetentRequests } from './custom-requests.js';
+import { AsBuiltDiagnostics } from './asbuilt-diagnostics.js';
 
 /** Creates a connection from the process arguments (`--stdio`, `--node-ipc`, `--socket=`) unless given one. */
 export function startDetentLanguageServer(connection: Connection = createConnection(ProposedFeatures.all)): Connection {
     const { shared, Detent } = createDetentServices({ connection, ...NodeFileSystem });
     registerDetentRequests(connection, shared, Detent);
+    new AsBuiltDiagnostics(shared, Detent, connection);
     // Severity overrides and the active encoding change diagnostics, hovers and lenses: rebuild open documents.
     Detent.lsp.DetentSettings.onDidChange(() => {
         const uris = shared.workspace.LangiumDocuments.all.map((d) => d.uri).toArray();

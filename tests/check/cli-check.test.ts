@@ -15,7 +15,6 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 
 const root = fileURLToPath(new URL('../../', import.meta.url));
 const bin = join(root, 'packages', 'cli', 'bin', 'detent.js');
-const examples = join(root, 'examples');
 
 function detent(...args: string[]): { status: number | null; stdout: string; stderr: string } {
     const r = spawnSync(process.execPath, [bin, ...args], { cwd: root, encoding: 'utf8' });

@@ -215,6 +215,30 @@ async function session({ entry, vsix, examples, trust, checks }) {
                 }, 15_000, `the cursor on state ${s}`);
             });
 
+            await checks.run('trusted: Show Equations opens a read-only report naming every state', async () => {
+                await runCommand(page, 'Detent: Show Equations');
+                const tab = page.locator('.tabs-container .tab', { hasText: 'equations' });
+                await tab.first().waitFor({ timeout: 20_000 });
+                const text = await waitFor(async () => {
+                    const t = (await page.locator('.editor-group-container.active .editor-instance .view-lines').allInnerTexts()).join('\n').replace(/\u00a0/g, ' ');
+                    if (!/\bd0\b|\bt0\b|\bj0\b|\bs0\b/.test(t)) return undefined; // an excitation equation of state bit 0 (LANGUAGE.md § Synthesis)
+                    return states.every((st) => t.includes(st)) ? t : undefined;
+                }, 15_000, 'the state names in the equations report');
+                log(`equations report: ${JSON.stringify(text.slice(0, 300))}`);
+            });
+            await shot(page, 'trusted-04b-equations');
+            await checks.run('trusted: Compare Encodings tabulates the encodings of LANGUAGE.md', async () => {
+                await openFile(page, defect);
+                await runCommand(page, 'Detent: Compare Encodings');
+                // The Markdown preview is a webview; the table lists encodings by their contract names.
+                const f = await webviewFrame(page, 'table', 30_000);
+                const body = await f.$eval('body', (b) => b.innerText);
+                for (const enc of ['binary', 'gray', 'onehot']) if (!body.includes(enc)) throw new Error(`no ${enc} row in ${body.slice(0, 400)}`);
+            }, 60_000);
+            await shot(page, 'trusted-04c-compare');
+            await runCommand(page, 'View: Close All Editors').catch(() => {});
+            await openFile(page, defect);
+
             const folder = join(profile.workspace, dirname(defect));
             let written = [];
             await checks.run('trusted: Export… → Verilog writes a file with the generated header beside the machine', async () => {

@@ -473,6 +473,34 @@ describe('diagram and export requests', () => {
     it.todo('diagram DOT comes from the core DOT exporter and names every state');
 });
 
+describe('active encoding from the settings', () => {
+    it('hover and inlay hints follow detent.encoding / detent.flipflop', async () => {
+        const uri = freshUri('settings-encoding');
+        await session.open(uri, PRESS);
+        await session.configure({ encoding: 'gray', flipflop: 'JK' });
+        try {
+            // LANGUAGE.md: gray code of index i is i XOR (i >> 1); StrokeB is index 2 → 3 → "11"
+            const gray = (i: number) => (i ^ (i >> 1)).toString(2).padStart(2, '0');
+            let value = '';
+            for (let k = 0; k < 40 && !value.includes(`\`${gray(2)}\``); k++) {
+                const hover = await session.request<Hover>('textDocument/hover', { textDocument: { uri }, position: wordRange(PRESS, 'StrokeB', 1).start });
+                value = (hover.contents as { value: string }).value;
+                if (!value.includes(`\`${gray(2)}\``)) await new Promise((r) => setTimeout(r, 50));
+            }
+            expect(value).toContain(`\`${gray(2)}\` (gray, JK flip-flops)`);
+            // JK excitation names (LANGUAGE.md synthesis): j1, k1, j0, k0
+            expect(value).toMatch(/^j1 = /m);
+            expect(value).toMatch(/^k0 = /m);
+            const hints = await session.request<{ label: string }[]>('textDocument/inlayHint', {
+                textDocument: { uri }, range: { start: { line: 0, character: 0 }, end: { line: 100, character: 0 } },
+            });
+            expect(hints.map((h) => h.label)).toEqual([0, 1, 2].map((i) => `= ${gray(i)}`));
+        } finally {
+            await session.configure({ encoding: 'machine', flipflop: 'machine' });
+        }
+    });
+});
+
 describe('detent lsp --stdio', () => {
     it('runs the same server from the CLI bundle', async () => {
         const cli = await LspSession.start({ via: 'cli' });

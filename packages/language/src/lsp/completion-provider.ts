@@ -5,7 +5,8 @@
  * Langium's follow-set computation from offering them after `flipflop`, so they are added here.
  */
 import type { LangiumDocument } from 'langium';
-import { DefaultCompletionProvider } from 'langium/lsp';
+import { DefaultCompletionProvider, type LangiumServices } from 'langium/lsp';
+import { failSoft } from './fail-soft.js';
 import { type CompletionItem, CompletionItemKind, type CompletionList, type CompletionParams } from 'vscode-languageserver-protocol';
 
 export const FLIPFLOP_DETAILS: Readonly<Record<string, string>> = {
@@ -26,7 +27,15 @@ export const ENCODING_DETAILS: Readonly<Record<string, string>> = {
 };
 
 export class DetentCompletionProvider extends DefaultCompletionProvider {
+    constructor(private readonly services: LangiumServices) {
+        super(services);
+    }
+
     override async getCompletion(document: LangiumDocument, params: CompletionParams): Promise<CompletionList | undefined> {
+        return failSoft(this.services, 'completion', undefined, () => this.complete(document, params));
+    }
+
+    private async complete(document: LangiumDocument, params: CompletionParams): Promise<CompletionList | undefined> {
         const list = await super.getCompletion(document, params);
         const text = document.textDocument.getText({ start: { line: params.position.line, character: 0 }, end: params.position });
         const extra = (details: Readonly<Record<string, string>>, kind: CompletionItemKind): CompletionItem[] =>

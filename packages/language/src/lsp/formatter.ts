@@ -159,6 +159,15 @@ export class DetentFormatter implements Formatter {
     }
 
     protected edits(document: LangiumDocument, options: FormattingOptions): TextEdit[] {
+        try {
+            return this.computeEdits(document, options);
+        } catch (err) {
+            console.error(`detent: formatting failed: ${err instanceof Error ? err.stack ?? err.message : String(err)}`);
+            return [];
+        }
+    }
+
+    protected computeEdits(document: LangiumDocument, options: FormattingOptions): TextEdit[] {
         // Never reformat text the parser could not read: the author is mid-edit.
         if (document.parseResult.lexerErrors.length > 0 || document.parseResult.parserErrors.length > 0) return [];
         const text = document.textDocument.getText();

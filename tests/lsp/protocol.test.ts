@@ -364,6 +364,21 @@ describe('editing features', () => {
         expect(applyWorkspaceEdit(PRESS, uri, signal)).toBe(PRESS.replace(/\bhands\b/g, 'two_hands'));
     });
 
+    it('goes to the definition of a state and finds every reference to it', async () => {
+        const uri = freshUri('definition');
+        await session.open(uri, PRESS);
+        // from the target of `when hands & done -> StrokeB;` to the declaration `state StrokeB`
+        const use = positionOf(PRESS, 'StrokeB;');
+        const defs = await session.request<{ uri?: string; targetUri?: string; range?: unknown; targetSelectionRange?: unknown }[]>('textDocument/definition', { textDocument: { uri }, position: use });
+        const target = defs[0]!;
+        expect(target.targetSelectionRange ?? target.range).toEqual(wordRange(PRESS, 'StrokeB', 1));
+        const refs = await session.request<{ range: unknown }[]>('textDocument/references', { textDocument: { uri }, position: wordRange(PRESS, 'StrokeB', 1).start, context: { includeDeclaration: true } });
+        // oracle: every whole-word occurrence of the name in the text
+        const expected = [0, 1, 2].map((k) => wordRange(PRESS, 'StrokeB', k));
+        expect(refs.map((r) => r.range)).toEqual(expect.arrayContaining(expected));
+        expect(refs).toHaveLength(expected.length);
+    });
+
     it('lists machines and states as document symbols', async () => {
         const uri = freshUri('symbols');
         await session.open(uri, PRESS);

@@ -6,7 +6,7 @@ import type { Machine, SourceRange } from '../model/machine.js';
 import { type Finding, type Witness, finding } from '../model/finding.js';
 import { inputOffsets } from '../model/variables.js';
 import { FREE, getVar } from '../boolean/cube.js';
-import type { SynthesisOptions } from '../synthesis/synthesize.js';
+import { type SynthesisOptions, SynthesisBudgetError } from '../synthesis/synthesize.js';
 import { synthesisBlocker, synthesize } from '../synthesis/run.js';
 import type { SynthesisResult } from '../synthesis/types.js';
 import { BddLimitError } from './bdd.js';
@@ -52,6 +52,8 @@ export interface AsBuiltOptions {
     readonly recoverCost?: boolean;
     /** Options for the synthesis run (encoding, flip-flop, auto budget). */
     readonly synthesis?: SynthesisOptions;
+    /** asBuiltFindings: give up synthesis after this many milliseconds (default 400). */
+    readonly synthesisBudgetMs?: number;
 }
 
 const DEFAULT_EXPLICIT_BITS = 16;
@@ -176,8 +178,19 @@ export function asyncInputFindings(result: SynthesisResult): Finding[] {
 /** Findings for one machine from its synthesized logic. */
 export function asBuiltFindings(machine: Machine, options: AsBuiltOptions = {}): Finding[] {
     if (synthesisBlocker(machine)) return []; // the model errors are reported by the design analyses / lowering
-    const synthesisOptions: SynthesisOptions = { budgetMs: 100, ...options.synthesis };
-    const result = synthesize(machine, synthesisOptions);
+    // Keystroke budget: a short auto search and short minimizer runs (the as-built meaning is exact for
+    // whatever covers come out; only their cost is less polished than `detent synth`'s).
+    const synthesisBudget = options.synthesisBudgetMs ?? 400;
+    const synthesisOptions: SynthesisOptions = {
+        budgetMs: 100, minimizeBudgetMs: 10, quick: true, deadline: Date.now() + synthesisBudget, ...options.synthesis,
+    };
+    let result: SynthesisResult;
+    try {
+        result = synthesize(machine, synthesisOptions);
+    } catch (err) {
+        if (!(err instanceof SynthesisBudgetError)) throw err;
+        return [finding('limit', `as-built analyses (lockup, reset-code, async-input) skipped: synthesis took longer than ${synthesisBudget} ms; \`detent synth\` runs them without this limit`, machineRange(machine))];
+    }
     const findings: Finding[] = [...asyncInputFindings(result)];
     const report = recoveryReport(result, { budgetMs: 300, recoverCost: false, ...options, synthesis: synthesisOptions });
     if (report.method === 'skipped') {

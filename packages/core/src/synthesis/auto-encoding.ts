@@ -51,9 +51,11 @@ export function autoSynthesize(machine: Machine, flipflop: FlipFlopKind, options
     const start = now();
     const clear = machine.reset?.target === 'clear';
     const pinned = clear ? initialState(machine) : flipflop !== 'D' ? 0 : -1;
+    // Candidates are priced with a short minimizer budget; the winner is synthesized again with the full one.
+    const searchOptions: CodesOptions = { ...options, minimizeBudgetMs: Math.min(options.minimizeBudgetMs ?? 50, 50) };
     const evaluate = (codes: readonly number[]): Candidate => {
         const assignment: StateAssignment = { encoding: 'auto', width, codes: codes.map((c) => toBits(c, width)) };
-        return { codes, result: synthesizeWithAssignment(ctx, assignment, flipflop, options) };
+        return { codes, result: synthesizeWithAssignment(ctx, assignment, flipflop, searchOptions) };
     };
     const ranked: Candidate[] = [];
     const seen = new Set<string>();
@@ -97,7 +99,9 @@ export function autoSynthesize(machine: Machine, flipflop: FlipFlopKind, options
     const note = `auto: ${method}; chosen ${codesText(best)} (${costText(best.result.cost)})`
         + (runnersUp.length ? `; runners-up: ${runnersUp.join('; ')}` : '')
         + (clear ? `; ${names[pinned]} kept on code 0 for reset clear` : '');
-    return { ...best.result, assignment: { ...best.result.assignment, note } };
+    const final = synthesizeWithAssignment(ctx, best.result.assignment, flipflop, options);
+    const chosen = compareCost(final.cost, best.result.cost) <= 0 ? final : best.result;
+    return { ...chosen, assignment: { ...chosen.assignment, note } };
 }
 
 /** Calls visit for each assignment whose bit columns are non-decreasing; stops when visit returns false. */

@@ -35,7 +35,7 @@ export function synthesize(machine: Machine, options: SynthesisOptions = {}): Sy
     const flipflop = options.flipflop ?? machine.flipflop;
     const blocker = synthesisBlocker(machine, encoding);
     if (blocker) throw new SynthesisError(`${machine.name}: ${blocker}`);
-    const codeOptions = { share: options.share, minimizeBudgetMs: options.minimizeBudgetMs, ignoreRecover: options.ignoreRecover };
+    const codeOptions = { share: options.share, minimizeBudgetMs: options.minimizeBudgetMs, ignoreRecover: options.ignoreRecover, quick: options.quick, deadline: options.deadline };
     if (encoding === 'auto') return autoSynthesize(machine, flipflop, { ...codeOptions, budgetMs: options.budgetMs });
     const assignment = fixedAssignment(machine, encoding)!;
     return synthesizeWithAssignment(synthesisContext(machine, assignment.width), assignment, flipflop, codeOptions);

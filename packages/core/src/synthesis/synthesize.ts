@@ -37,6 +37,10 @@ export interface SynthesisOptions {
     readonly minimizeBudgetMs?: number;
     /** Treat `recover` as absent (used to report what recovery costs). */
     readonly ignoreRecover?: boolean;
+    /** Keystroke mode (as-built findings in the editor): cheaper S·R repair. */
+    readonly quick?: boolean;
+    /** Date.now() after which synthesis throws SynthesisBudgetError. */
+    readonly deadline?: number;
 }
 
 /** A region of the code space with one specified behaviour per input piece. */
@@ -109,6 +113,9 @@ function illegalHotCubes(width: number, inputCount: number, nvars: number, hot: 
     return cubes;
 }
 
+/** Synthesis ran past `deadline` (keystroke budgets); the caller reports the skipped work. */
+export class SynthesisBudgetError extends Error {}
+
 /** Everything synthesis needs that does not depend on the state assignment (reused by the auto search). */
 export interface SynthesisContext {
     readonly machine: Machine;
@@ -125,6 +132,10 @@ export function synthesisContext(machine: Machine, width: number): SynthesisCont
 
 export interface CodesOptions {
     readonly share?: boolean;
+    /** Keystroke mode: repair S·R overlaps by cube subtraction only, without re-minimizing. */
+    readonly quick?: boolean;
+    /** Date.now() after which synthesis gives up with SynthesisBudgetError (checked between equations). */
+    readonly deadline?: number;
     readonly minimizeBudgetMs?: number;
     readonly ignoreRecover?: boolean;
 }
@@ -203,6 +214,7 @@ export function synthesizeWithAssignment(ctx: SynthesisContext, assignment: Stat
     const onOf = new Map<string, Cube[]>();
     const dcOf = new Map<string, Cube[]>();
     for (const spec of specs) {
+        if (options.deadline !== undefined && Date.now() > options.deadline) throw new SynthesisBudgetError(`synthesis of ${machine.name} ran past its time budget`);
         interface Group { cube: Cube; on: Cube[]; dc: Cube[]; q?: 0 | 1 }
         const groups: Group[] = [];
         for (const region of regions) {
@@ -326,10 +338,15 @@ function repairSetReset(equations: Equation[], onOf: Map<string, Cube[]>, dcOf: 
         const r = equations[ri]!;
         if (!coversIntersect(s.cover, r.cover, nvars)) continue;
         const options2: [Cube[], Cube[]][] = [];
-        const newS = remin(s.name, r.cover);
-        if (newS) options2.push([newS, [...r.cover]]);
-        const newR = remin(r.name, s.cover);
-        if (newR) options2.push([[...s.cover], newR]);
+        // S minus R (and R minus S) is always valid: it keeps ON_S (which lies outside R) and stays inside S.
+        options2.push([removeContained(coverDifference(s.cover, r.cover, nvars)), [...r.cover]]);
+        options2.push([[...s.cover], removeContained(coverDifference(r.cover, s.cover, nvars))]);
+        if (!options.quick) {
+            const newS = remin(s.name, r.cover);
+            if (newS) options2.push([newS, [...r.cover]]);
+            const newR = remin(r.name, s.cover);
+            if (newR) options2.push([[...s.cover], newR]);
+        }
         options2.push([onOf.get(s.name)!, onOf.get(r.name)!]);
         const price = (p: [Cube[], Cube[]]) => networkCost(p, nvars, 0);
         options2.sort((a, b) => price(a).gateInputs - price(b).gateInputs || price(a).literals - price(b).literals);

@@ -297,7 +297,7 @@ export function isInputStep(item: unknown): item is InputStep {
 export interface Machine extends langium.AstNode {
     readonly $container: Model;
     readonly $type: 'Machine';
-    members: Array<Member>;
+    members: Array<ClockDecl | CodeDecl | EncodingDecl | FlipFlopDecl | InputDecl | OutputDecl | RecoverDecl | ResetDecl | Scenario | State>;
     name: string;
 }
 
@@ -522,7 +522,7 @@ export interface Scenario extends langium.AstNode {
     readonly $container: Machine;
     readonly $type: 'Scenario';
     name: string;
-    steps: Array<ScenarioStep>;
+    steps: Array<ExpectStep | InputStep | ResetStep>;
 }
 
 export const Scenario = {
@@ -569,7 +569,7 @@ export function isSignalGuard(item: unknown): item is SignalGuard {
 export interface State extends langium.AstNode {
     readonly $container: Machine;
     readonly $type: 'State';
-    items: Array<StateItem>;
+    items: Array<MooreEmit | Otherwise | Transition>;
     name: string;
     priority: boolean;
 }

@@ -49,7 +49,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@35"
+                "$ref": "#/rules@31"
               },
               "arguments": []
             }
@@ -63,99 +63,85 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "feature": "members",
             "operator": "+=",
             "terminal": {
-              "$type": "RuleCall",
-              "rule": {
-                "$ref": "#/rules@2"
-              },
-              "arguments": []
+              "$type": "Alternatives",
+              "elements": [
+                {
+                  "$type": "RuleCall",
+                  "rule": {
+                    "$ref": "#/rules@2"
+                  },
+                  "arguments": []
+                },
+                {
+                  "$type": "RuleCall",
+                  "rule": {
+                    "$ref": "#/rules@3"
+                  },
+                  "arguments": []
+                },
+                {
+                  "$type": "RuleCall",
+                  "rule": {
+                    "$ref": "#/rules@4"
+                  },
+                  "arguments": []
+                },
+                {
+                  "$type": "RuleCall",
+                  "rule": {
+                    "$ref": "#/rules@6"
+                  },
+                  "arguments": []
+                },
+                {
+                  "$type": "RuleCall",
+                  "rule": {
+                    "$ref": "#/rules@8"
+                  },
+                  "arguments": []
+                },
+                {
+                  "$type": "RuleCall",
+                  "rule": {
+                    "$ref": "#/rules@10"
+                  },
+                  "arguments": []
+                },
+                {
+                  "$type": "RuleCall",
+                  "rule": {
+                    "$ref": "#/rules@11"
+                  },
+                  "arguments": []
+                },
+                {
+                  "$type": "RuleCall",
+                  "rule": {
+                    "$ref": "#/rules@12"
+                  },
+                  "arguments": []
+                },
+                {
+                  "$type": "RuleCall",
+                  "rule": {
+                    "$ref": "#/rules@13"
+                  },
+                  "arguments": []
+                },
+                {
+                  "$type": "RuleCall",
+                  "rule": {
+                    "$ref": "#/rules@24"
+                  },
+                  "arguments": []
+                }
+              ]
             },
             "cardinality": "*"
           },
           {
             "$type": "Keyword",
             "value": "}"
-          }
-        ]
-      },
-      "entry": false,
-      "fragment": false,
-      "parameters": []
-    },
-    {
-      "$type": "ParserRule",
-      "name": "Member",
-      "definition": {
-        "$type": "Alternatives",
-        "elements": [
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@3"
-            },
-            "arguments": []
-          },
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@4"
-            },
-            "arguments": []
-          },
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@5"
-            },
-            "arguments": []
-          },
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@7"
-            },
-            "arguments": []
-          },
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@9"
-            },
-            "arguments": []
-          },
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@11"
-            },
-            "arguments": []
-          },
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@12"
-            },
-            "arguments": []
-          },
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@13"
-            },
-            "arguments": []
-          },
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@14"
-            },
-            "arguments": []
-          },
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@27"
-            },
-            "arguments": []
           }
         ]
       },
@@ -180,7 +166,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@35"
+                "$ref": "#/rules@31"
               },
               "arguments": []
             }
@@ -231,7 +217,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@35"
+                "$ref": "#/rules@31"
               },
               "arguments": []
             }
@@ -291,12 +277,12 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                     "terminal": {
                       "$type": "CrossReference",
                       "type": {
-                        "$ref": "#/rules@14"
+                        "$ref": "#/rules@13"
                       },
                       "terminal": {
                         "$type": "RuleCall",
                         "rule": {
-                          "$ref": "#/rules@35"
+                          "$ref": "#/rules@31"
                         },
                         "arguments": []
                       },
@@ -361,7 +347,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@34"
+                    "$ref": "#/rules@30"
                   },
                   "arguments": []
                 }
@@ -380,7 +366,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@6"
+                "$ref": "#/rules@5"
               },
               "arguments": []
             }
@@ -399,7 +385,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@6"
+                    "$ref": "#/rules@5"
                   },
                   "arguments": []
                 }
@@ -427,7 +413,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
         "terminal": {
           "$type": "RuleCall",
           "rule": {
-            "$ref": "#/rules@35"
+            "$ref": "#/rules@31"
           },
           "arguments": []
         }
@@ -470,7 +456,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@34"
+                    "$ref": "#/rules@30"
                   },
                   "arguments": []
                 }
@@ -489,7 +475,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@8"
+                "$ref": "#/rules@7"
               },
               "arguments": []
             }
@@ -508,7 +494,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@8"
+                    "$ref": "#/rules@7"
                   },
                   "arguments": []
                 }
@@ -536,7 +522,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
         "terminal": {
           "$type": "RuleCall",
           "rule": {
-            "$ref": "#/rules@35"
+            "$ref": "#/rules@31"
           },
           "arguments": []
         }
@@ -562,7 +548,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@10"
+                "$ref": "#/rules@9"
               },
               "arguments": []
             }
@@ -635,7 +621,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@35"
+                "$ref": "#/rules@31"
               },
               "arguments": []
             }
@@ -667,12 +653,12 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "CrossReference",
               "type": {
-                "$ref": "#/rules@14"
+                "$ref": "#/rules@13"
               },
               "terminal": {
                 "$type": "RuleCall",
                 "rule": {
-                  "$ref": "#/rules@35"
+                  "$ref": "#/rules@31"
                 },
                 "arguments": []
               },
@@ -691,7 +677,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@34"
+                "$ref": "#/rules@30"
               },
               "arguments": []
             }
@@ -727,12 +713,12 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "CrossReference",
               "type": {
-                "$ref": "#/rules@14"
+                "$ref": "#/rules@13"
               },
               "terminal": {
                 "$type": "RuleCall",
                 "rule": {
-                  "$ref": "#/rules@35"
+                  "$ref": "#/rules@31"
                 },
                 "arguments": []
               },
@@ -767,7 +753,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@35"
+                "$ref": "#/rules@31"
               },
               "arguments": []
             }
@@ -791,50 +777,36 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "feature": "items",
             "operator": "+=",
             "terminal": {
-              "$type": "RuleCall",
-              "rule": {
-                "$ref": "#/rules@15"
-              },
-              "arguments": []
+              "$type": "Alternatives",
+              "elements": [
+                {
+                  "$type": "RuleCall",
+                  "rule": {
+                    "$ref": "#/rules@14"
+                  },
+                  "arguments": []
+                },
+                {
+                  "$type": "RuleCall",
+                  "rule": {
+                    "$ref": "#/rules@16"
+                  },
+                  "arguments": []
+                },
+                {
+                  "$type": "RuleCall",
+                  "rule": {
+                    "$ref": "#/rules@17"
+                  },
+                  "arguments": []
+                }
+              ]
             },
             "cardinality": "*"
           },
           {
             "$type": "Keyword",
             "value": "}"
-          }
-        ]
-      },
-      "entry": false,
-      "fragment": false,
-      "parameters": []
-    },
-    {
-      "$type": "ParserRule",
-      "name": "StateItem",
-      "definition": {
-        "$type": "Alternatives",
-        "elements": [
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@16"
-            },
-            "arguments": []
-          },
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@18"
-            },
-            "arguments": []
-          },
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@19"
-            },
-            "arguments": []
           }
         ]
       },
@@ -859,7 +831,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@17"
+                "$ref": "#/rules@15"
               },
               "arguments": []
             }
@@ -878,7 +850,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@17"
+                    "$ref": "#/rules@15"
                   },
                   "arguments": []
                 }
@@ -909,12 +881,12 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "CrossReference",
               "type": {
-                "$ref": "#/rules@8"
+                "$ref": "#/rules@7"
               },
               "terminal": {
                 "$type": "RuleCall",
                 "rule": {
-                  "$ref": "#/rules@35"
+                  "$ref": "#/rules@31"
                 },
                 "arguments": []
               },
@@ -936,7 +908,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@34"
+                    "$ref": "#/rules@30"
                   },
                   "arguments": []
                 }
@@ -967,7 +939,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@20"
+                "$ref": "#/rules@18"
               },
               "arguments": []
             }
@@ -983,12 +955,12 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "CrossReference",
               "type": {
-                "$ref": "#/rules@14"
+                "$ref": "#/rules@13"
               },
               "terminal": {
                 "$type": "RuleCall",
                 "rule": {
-                  "$ref": "#/rules@35"
+                  "$ref": "#/rules@31"
                 },
                 "arguments": []
               },
@@ -1010,7 +982,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@17"
+                    "$ref": "#/rules@15"
                   },
                   "arguments": []
                 }
@@ -1029,7 +1001,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                     "terminal": {
                       "$type": "RuleCall",
                       "rule": {
-                        "$ref": "#/rules@17"
+                        "$ref": "#/rules@15"
                       },
                       "arguments": []
                     }
@@ -1077,12 +1049,12 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                     "terminal": {
                       "$type": "CrossReference",
                       "type": {
-                        "$ref": "#/rules@14"
+                        "$ref": "#/rules@13"
                       },
                       "terminal": {
                         "$type": "RuleCall",
                         "rule": {
-                          "$ref": "#/rules@35"
+                          "$ref": "#/rules@31"
                         },
                         "arguments": []
                       },
@@ -1104,7 +1076,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                         "terminal": {
                           "$type": "RuleCall",
                           "rule": {
-                            "$ref": "#/rules@17"
+                            "$ref": "#/rules@15"
                           },
                           "arguments": []
                         }
@@ -1123,7 +1095,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                             "terminal": {
                               "$type": "RuleCall",
                               "rule": {
-                                "$ref": "#/rules@17"
+                                "$ref": "#/rules@15"
                               },
                               "arguments": []
                             }
@@ -1168,20 +1140,6 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
     },
     {
       "$type": "ParserRule",
-      "name": "Guard",
-      "definition": {
-        "$type": "RuleCall",
-        "rule": {
-          "$ref": "#/rules@21"
-        },
-        "arguments": []
-      },
-      "entry": false,
-      "fragment": false,
-      "parameters": []
-    },
-    {
-      "$type": "ParserRule",
       "name": "OrGuard",
       "inferredType": {
         "$type": "InferredType",
@@ -1193,7 +1151,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
           {
             "$type": "RuleCall",
             "rule": {
-              "$ref": "#/rules@22"
+              "$ref": "#/rules@19"
             },
             "arguments": []
           },
@@ -1223,7 +1181,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                     "terminal": {
                       "$type": "RuleCall",
                       "rule": {
-                        "$ref": "#/rules@22"
+                        "$ref": "#/rules@19"
                       },
                       "arguments": []
                     }
@@ -1253,7 +1211,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
           {
             "$type": "RuleCall",
             "rule": {
-              "$ref": "#/rules@23"
+              "$ref": "#/rules@20"
             },
             "arguments": []
           },
@@ -1283,7 +1241,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                     "terminal": {
                       "$type": "RuleCall",
                       "rule": {
-                        "$ref": "#/rules@23"
+                        "$ref": "#/rules@20"
                       },
                       "arguments": []
                     }
@@ -1313,7 +1271,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
           {
             "$type": "RuleCall",
             "rule": {
-              "$ref": "#/rules@24"
+              "$ref": "#/rules@21"
             },
             "arguments": []
           },
@@ -1343,7 +1301,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                     "terminal": {
                       "$type": "RuleCall",
                       "rule": {
-                        "$ref": "#/rules@24"
+                        "$ref": "#/rules@21"
                       },
                       "arguments": []
                     }
@@ -1391,7 +1349,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@24"
+                    "$ref": "#/rules@21"
                   },
                   "arguments": []
                 }
@@ -1401,7 +1359,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
           {
             "$type": "RuleCall",
             "rule": {
-              "$ref": "#/rules@25"
+              "$ref": "#/rules@22"
             },
             "arguments": []
           }
@@ -1442,7 +1400,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@20"
+                    "$ref": "#/rules@18"
                   },
                   "arguments": []
                 }
@@ -1470,7 +1428,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@34"
+                    "$ref": "#/rules@30"
                   },
                   "arguments": []
                 }
@@ -1494,12 +1452,12 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "CrossReference",
                   "type": {
-                    "$ref": "#/rules@6"
+                    "$ref": "#/rules@5"
                   },
                   "terminal": {
                     "$type": "RuleCall",
                     "rule": {
-                      "$ref": "#/rules@35"
+                      "$ref": "#/rules@31"
                     },
                     "arguments": []
                   },
@@ -1524,7 +1482,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                         "terminal": {
                           "$type": "RuleCall",
                           "rule": {
-                            "$ref": "#/rules@34"
+                            "$ref": "#/rules@30"
                           },
                           "arguments": []
                         }
@@ -1545,7 +1503,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                         "terminal": {
                           "$type": "RuleCall",
                           "rule": {
-                            "$ref": "#/rules@26"
+                            "$ref": "#/rules@23"
                           },
                           "arguments": []
                         }
@@ -1557,7 +1515,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                         "terminal": {
                           "$type": "RuleCall",
                           "rule": {
-                            "$ref": "#/rules@34"
+                            "$ref": "#/rules@30"
                           },
                           "arguments": []
                         }
@@ -1629,7 +1587,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "RuleCall",
               "rule": {
-                "$ref": "#/rules@35"
+                "$ref": "#/rules@31"
               },
               "arguments": []
             }
@@ -1643,50 +1601,36 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "feature": "steps",
             "operator": "+=",
             "terminal": {
-              "$type": "RuleCall",
-              "rule": {
-                "$ref": "#/rules@28"
-              },
-              "arguments": []
+              "$type": "Alternatives",
+              "elements": [
+                {
+                  "$type": "RuleCall",
+                  "rule": {
+                    "$ref": "#/rules@25"
+                  },
+                  "arguments": []
+                },
+                {
+                  "$type": "RuleCall",
+                  "rule": {
+                    "$ref": "#/rules@26"
+                  },
+                  "arguments": []
+                },
+                {
+                  "$type": "RuleCall",
+                  "rule": {
+                    "$ref": "#/rules@28"
+                  },
+                  "arguments": []
+                }
+              ]
             },
             "cardinality": "*"
           },
           {
             "$type": "Keyword",
             "value": "}"
-          }
-        ]
-      },
-      "entry": false,
-      "fragment": false,
-      "parameters": []
-    },
-    {
-      "$type": "ParserRule",
-      "name": "ScenarioStep",
-      "definition": {
-        "$type": "Alternatives",
-        "elements": [
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@29"
-            },
-            "arguments": []
-          },
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@30"
-            },
-            "arguments": []
-          },
-          {
-            "$type": "RuleCall",
-            "rule": {
-              "$ref": "#/rules@32"
-            },
-            "arguments": []
           }
         ]
       },
@@ -1748,7 +1692,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@31"
+                    "$ref": "#/rules@27"
                   },
                   "arguments": []
                 }
@@ -1767,7 +1711,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                     "terminal": {
                       "$type": "RuleCall",
                       "rule": {
-                        "$ref": "#/rules@31"
+                        "$ref": "#/rules@27"
                       },
                       "arguments": []
                     }
@@ -1792,7 +1736,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@34"
+                    "$ref": "#/rules@30"
                   },
                   "arguments": []
                 }
@@ -1823,12 +1767,12 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "CrossReference",
               "type": {
-                "$ref": "#/rules@6"
+                "$ref": "#/rules@5"
               },
               "terminal": {
                 "$type": "RuleCall",
                 "rule": {
-                  "$ref": "#/rules@35"
+                  "$ref": "#/rules@31"
                 },
                 "arguments": []
               },
@@ -1850,7 +1794,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@34"
+                    "$ref": "#/rules@30"
                   },
                   "arguments": []
                 }
@@ -1888,12 +1832,12 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "CrossReference",
               "type": {
-                "$ref": "#/rules@14"
+                "$ref": "#/rules@13"
               },
               "terminal": {
                 "$type": "RuleCall",
                 "rule": {
-                  "$ref": "#/rules@35"
+                  "$ref": "#/rules@31"
                 },
                 "arguments": []
               },
@@ -1916,7 +1860,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@33"
+                    "$ref": "#/rules@29"
                   },
                   "arguments": []
                 }
@@ -1935,7 +1879,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                     "terminal": {
                       "$type": "RuleCall",
                       "rule": {
-                        "$ref": "#/rules@33"
+                        "$ref": "#/rules@29"
                       },
                       "arguments": []
                     }
@@ -1969,12 +1913,12 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
             "terminal": {
               "$type": "CrossReference",
               "type": {
-                "$ref": "#/rules@8"
+                "$ref": "#/rules@7"
               },
               "terminal": {
                 "$type": "RuleCall",
                 "rule": {
-                  "$ref": "#/rules@35"
+                  "$ref": "#/rules@31"
                 },
                 "arguments": []
               },
@@ -1996,7 +1940,7 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
                 "terminal": {
                   "$type": "RuleCall",
                   "rule": {
-                    "$ref": "#/rules@34"
+                    "$ref": "#/rules@30"
                   },
                   "arguments": []
                 }
@@ -2074,7 +2018,131 @@ export const DetentGrammar = (): Grammar => loadedDetentGrammar ?? (loadedDetent
       "fragment": false
     }
   ],
+  "types": [
+    {
+      "$type": "Type",
+      "name": "Member",
+      "type": {
+        "$type": "UnionType",
+        "types": [
+          {
+            "$type": "SimpleType",
+            "typeRef": {
+              "$ref": "#/rules@2"
+            }
+          },
+          {
+            "$type": "SimpleType",
+            "typeRef": {
+              "$ref": "#/rules@3"
+            }
+          },
+          {
+            "$type": "SimpleType",
+            "typeRef": {
+              "$ref": "#/rules@4"
+            }
+          },
+          {
+            "$type": "SimpleType",
+            "typeRef": {
+              "$ref": "#/rules@6"
+            }
+          },
+          {
+            "$type": "SimpleType",
+            "typeRef": {
+              "$ref": "#/rules@8"
+            }
+          },
+          {
+            "$type": "SimpleType",
+            "typeRef": {
+              "$ref": "#/rules@10"
+            }
+          },
+          {
+            "$type": "SimpleType",
+            "typeRef": {
+              "$ref": "#/rules@11"
+            }
+          },
+          {
+            "$type": "SimpleType",
+            "typeRef": {
+              "$ref": "#/rules@12"
+            }
+          },
+          {
+            "$type": "SimpleType",
+            "typeRef": {
+              "$ref": "#/rules@13"
+            }
+          },
+          {
+            "$type": "SimpleType",
+            "typeRef": {
+              "$ref": "#/rules@24"
+            }
+          }
+        ]
+      }
+    },
+    {
+      "$type": "Type",
+      "name": "StateItem",
+      "type": {
+        "$type": "UnionType",
+        "types": [
+          {
+            "$type": "SimpleType",
+            "typeRef": {
+              "$ref": "#/rules@14"
+            }
+          },
+          {
+            "$type": "SimpleType",
+            "typeRef": {
+              "$ref": "#/rules@16"
+            }
+          },
+          {
+            "$type": "SimpleType",
+            "typeRef": {
+              "$ref": "#/rules@17"
+            }
+          }
+        ]
+      }
+    },
+    {
+      "$type": "Type",
+      "name": "ScenarioStep",
+      "type": {
+        "$type": "UnionType",
+        "types": [
+          {
+            "$type": "SimpleType",
+            "typeRef": {
+              "$ref": "#/rules@25"
+            }
+          },
+          {
+            "$type": "SimpleType",
+            "typeRef": {
+              "$ref": "#/rules@26"
+            }
+          },
+          {
+            "$type": "SimpleType",
+            "typeRef": {
+              "$ref": "#/rules@28"
+            }
+          }
+        ]
+      }
+    }
+  ],
   "imports": [],
-  "interfaces": [],
-  "types": []
+  "interfaces": []
 }`));

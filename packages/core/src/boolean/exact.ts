@@ -83,7 +83,7 @@ function atomic(c: Cube, primes: readonly Cube[], nvars: number): boolean {
 }
 
 /** The minterm of c whose free variables are 0. */
-function firstMinterm(c: Cube, nvars: number): Cube {
+export function firstMinterm(c: Cube, nvars: number): Cube {
     const r = c.slice();
     for (let w = 0; w < r.length; w++) {
         const free = r[w]! & (r[w]! >>> 1) & 0x55555555 & wordMask(nvars, w);
@@ -94,7 +94,7 @@ function firstMinterm(c: Cube, nvars: number): Cube {
 }
 
 /** A cube containing no minterm of f (within the space), or null when f is a tautology. */
-function holeIn(f: readonly Cube[], nvars: number): Cube | null {
+export function holeIn(f: readonly Cube[], nvars: number): Cube | null {
     if (f.length === 0) return universe(nvars);
     for (const c of f) if (isUniverse(c, nvars)) return null;
     const k = phaseCounts(f, nvars);

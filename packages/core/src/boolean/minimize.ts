@@ -22,9 +22,9 @@ export interface MinimizeOptions {
     readonly maxPrimes?: number;
     /** Largest covering table (rows) the exact method accepts in 'auto' (default 20000). */
     readonly maxRows?: number;
-    /** In 'auto', the exact search may take this many times the heuristic's time (default 2)… */
+    /** In 'auto', the exact search may take this many times the heuristic's time (default 1)… */
     readonly exactFactor?: number;
-    /** …but at least this many milliseconds (default 4). */
+    /** …but at least this many milliseconds (default 30). */
     readonly exactMinMs?: number;
 }
 
@@ -61,7 +61,7 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
         maxRows: big ? 10_000_000 : options.maxRows ?? 20000,
         // In 'auto' the exact search gets time in proportion to the heuristic's (it is an
         // improvement step); 'exact' may use the whole budget.
-        deadline: big ? deadline : Math.min(deadline, Date.now() + Math.max(options.exactMinMs ?? 4, (options.exactFactor ?? 2) * heuristicMs)),
+        deadline: big ? deadline : Math.min(deadline, Date.now() + Math.max(options.exactMinMs ?? 30, (options.exactFactor ?? 1) * heuristicMs)),
     });
     if (outcome === null) return { cover, exact: false };
     if (outcome.cover && cheaper(coverCost(outcome.cover, nvars), hc)) cover = outcome.cover;

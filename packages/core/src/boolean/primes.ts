@@ -58,7 +58,39 @@ function primesOf(f: Cube[], nvars: number, masks: Uint32Array, b: PrimeBudget):
     }
     for (const a of p0) { const r = a.slice(); r[w] = (r[w]! & ~(2 << shift)) >>> 0; cand.push(r); }
     for (const c of p1) { const r = c.slice(); r[w] = (r[w]! & ~(1 << shift)) >>> 0; cand.push(r); }
-    const r = singleCubeContainment(cand, words);
+    const r = containmentFree(cand, words, b);
     if (r.length > b.limit) throw new TooManyPrimes();
     return r;
+}
+
+/** singleCubeContainment with deadline and size checks (the merge can be large). */
+function containmentFree(f: Cube[], words: number, b: PrimeBudget): Cube[] {
+    const low = 0x55555555;
+    const size = new Float64Array(f.length);
+    for (let i = 0; i < f.length; i++) {
+        const c = f[i]!;
+        let n = 0;
+        for (let w = 0; w < words; w++) {
+            let x = c[w]! & (c[w]! >>> 1) & low;
+            while (x) { x &= x - 1; n++; }
+        }
+        size[i] = (1000 - n) * 4194304 + i; // most free variables first
+    }
+    size.sort();
+    const kept: Cube[] = [];
+    for (let k = 0; k < size.length; k++) {
+        if ((k & 255) === 0 && Date.now() > b.deadline) throw new TooManyPrimes();
+        const c = f[size[k]! % 4194304]!;
+        let inside = false;
+        for (const q of kept) {
+            let sub = true;
+            for (let w = 0; w < words; w++) if (((q[w]! & c[w]!) >>> 0) !== c[w]) { sub = false; break; }
+            if (sub) { inside = true; break; }
+        }
+        if (!inside) {
+            kept.push(c);
+            if (kept.length > b.limit) throw new TooManyPrimes();
+        }
+    }
+    return kept;
 }

@@ -125,3 +125,34 @@ export function literalsOf(cover: readonly string[]): number {
 export function plaLines(f: SuiteFunction): string[] {
     return [`.i ${f.nvars}`, '.o 1', '.type fd', ...f.on.map((c) => `${c} 1`), ...f.dc.map((c) => `${c} -`), '.e'];
 }
+
+export interface Wide { n: number; on: string[]; dc: string[]; states: number }
+
+/** `states` one-hot bits then `inputs` inputs; per state a few products hot bit · 1–3 input literals. */
+export function oneHotFunction(seed: number, states: number, inputs: number, productsPerState: number): Wide {
+    const r = rng(seed);
+    const n = states + inputs;
+    const on: string[] = [];
+    for (let s = 0; s < states; s++) {
+        const k = 1 + Math.floor(r() * productsPerState);
+        for (let j = 0; j < k; j++) {
+            const cube = new Array<string>(n).fill('-');
+            cube[s] = '1';
+            const lits = 1 + Math.floor(r() * 3);
+            for (let l = 0; l < lits; l++) cube[states + Math.floor(r() * inputs)] = r() < 0.5 ? '0' : '1';
+            on.push(cube.join(''));
+        }
+    }
+    // Don't-cares: the all-zero state code, and a few "two hot bits" cubes.
+    const dc = ['0'.repeat(states) + '-'.repeat(inputs)];
+    for (let j = 0; j < 8; j++) {
+        const cube = new Array<string>(n).fill('-');
+        const a = Math.floor(r() * states);
+        const b = (a + 1 + Math.floor(r() * (states - 1))) % states;
+        cube[a] = '1';
+        cube[b] = '1';
+        dc.push(cube.join(''));
+    }
+    return { n, on, dc, states };
+}
+

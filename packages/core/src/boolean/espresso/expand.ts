@@ -230,7 +230,7 @@ function expandAgainstOff(
 }
 
 /** Containment checks made per cube while trying to swallow neighbours (bounds the cost). */
-const MAX_NEIGHBOUR_CHECKS = 24;
+const MAX_NEIGHBOUR_CHECKS = 8;
 
 function expandByContainment(
     i: number, f: readonly Cube[], covered: Uint8Array, care: readonly Cube[], masks: Uint32Array, nvars: number,

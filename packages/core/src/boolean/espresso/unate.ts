@@ -106,8 +106,10 @@ export function cubeCofactor(f: readonly Cube[], p: Cube, nvars: number, out: Cu
         for (const c of f) {
             const x = c[0]! & p0;
             if (((x | (x >>> 1)) & m) !== m) continue;
+            const y = (c[0]! | litMask) >>> 0;
+            if (y === c[0]) { out.push(c); continue; }
             const k = new Uint32Array(1);
-            k[0] = c[0]! | litMask;
+            k[0] = y;
             out.push(k);
         }
         return out;
@@ -123,6 +125,10 @@ export function cubeCofactor(f: readonly Cube[], p: Cube, nvars: number, out: Cu
             const m = masks[w]! & LOW;
             if (((x | (x >>> 1)) & m) !== m) continue outer;
         }
+        // Cubes already free where p has literals are their own cofactor: no copy needed.
+        let same = true;
+        for (let w = 0; w < words; w++) if (((c[w]! | litMask[w]!) >>> 0) !== c[w]) { same = false; break; }
+        if (same) { out.push(c); continue; }
         const k = new Uint32Array(words);
         for (let w = 0; w < words; w++) k[w] = (c[w]! | litMask[w]!) >>> 0;
         out.push(k);
@@ -161,18 +167,32 @@ export function isTautology(f: readonly Cube[], nvars: number): boolean {
 
 function taut(f: readonly Cube[], nvars: number, masks: Uint32Array): boolean {
     if (f.length === 0) return false;
+    // One pass: phase counts per variable, and the volume (the cubes together must hold at
+    // least 2^n minterms — a necessary condition).
+    const words = masks.length;
+    const k: PhaseCounts = { zeros: new Int32Array(nvars), ones: new Int32Array(nvars) };
     let volume = 0;
     for (const c of f) {
-        const n = cubeLiterals(c, masks);
+        let n = 0;
+        for (let w = 0; w < words; w++) {
+            const x = c[w]!;
+            let lit = literalBits(x, masks[w]!);
+            while (lit !== 0) {
+                const b = lit & -lit;
+                const pos = 31 - Math.clz32(b);
+                const v = w * 16 + (pos >>> 1);
+                if (((x >>> pos) & 3) === ZERO) k.zeros[v]!++;
+                else k.ones[v]!++;
+                lit ^= b;
+                n++;
+            }
+        }
         if (n === 0) return true;
         volume += 2 ** -n;
     }
-    // Necessary condition: the cubes together must hold at least 2^n minterms.
     if (volume < 1 - 1e-9) return false;
-    const k = phaseCounts(f, nvars);
     // Unate reduction: for a variable that appears in one phase only, F is a tautology iff the
     // cubes that do not mention it are (F restricted to the other phase).
-    const words = masks.length;
     const unate = new Uint32Array(words);
     let anyUnate = false;
     for (let v = 0; v < nvars; v++) {
@@ -193,7 +213,10 @@ function taut(f: readonly Cube[], nvars: number, masks: Uint32Array): boolean {
     }
     const v = mostBinate(k, nvars);
     if (v < 0) return false;
-    return taut(literalCofactor(f, v, 0, nvars), nvars, masks) && taut(literalCofactor(f, v, 1, nvars), nvars, masks);
+    // Try the majority phase first: it drops the minority cubes, often leaving a cover unate
+    // enough to fail fast (a one-hot cover with one all-zero cube is the typical case).
+    const first: 0 | 1 = k.ones[v]! >= k.zeros[v]! ? 1 : 0;
+    return taut(literalCofactor(f, v, first, nvars), nvars, masks) && taut(literalCofactor(f, v, first === 1 ? 0 : 1, nvars), nvars, masks);
 }
 
 /** True when every minterm of cube c lies in the cover f. */

@@ -154,6 +154,22 @@ async function session({ entry, vsix, examples, trust, checks }) {
         await shot(page, `${label}-02-problems`);
 
         if (trust) {
+            await checks.run('trusted: each sampled defect file shows a squiggle of its code\'s severity', async () => {
+                // examples/defects/<code>.detent holds one defect of that code; severities from LANGUAGE.md § Diagnostics.
+                const severity = { overlap: 'error', 'unknown-name': 'error', syntax: 'error', 'reset-code': 'error', incomplete: 'warning', unreachable: 'warning', lockup: 'warning', 'no-return': 'info' };
+                const missing = [];
+                for (const [code, sev] of Object.entries(severity)) {
+                    const rel = `defects/${code}.detent`;
+                    if (!existsSync(join(profile.workspace, rel))) { missing.push(code); continue; }
+                    await openFile(page, rel);
+                    await page.locator(`.editor-group-container.active .editor-instance .squiggly-${sev}`).first().waitFor({ timeout: 20_000 })
+                        .catch(() => { throw new Error(`${rel}: no ${sev} squiggle`); });
+                }
+                if (missing.length === Object.keys(severity).length) throw new Error('none of the sampled defect files exists');
+                if (missing.length) log(`defect files not present: ${missing.join(', ')}`);
+                await openFile(page, defect);
+            }, 180_000);
+
             await checks.run('trusted: hover on a state shows its name and the safety caution', async () => {
                 const s = states[0];
                 if (!s) throw new Error('no state in the defect file');
@@ -180,7 +196,11 @@ async function session({ entry, vsix, examples, trust, checks }) {
             let frame;
             await checks.run('trusted: the state diagram webview renders every state of the file', async () => {
                 await runCommand(page, 'Detent: Show State Diagram');
-                frame = await webviewFrame(page, '#detent-diagram svg', 40_000);
+                const f = await webviewFrame(page, '#detent-diagram section.machine', 40_000);
+                await f.waitForSelector('#detent-diagram svg', { timeout: 10_000 }).catch(async () => {
+                    throw new Error(`the diagram shows no drawing: ${await f.$eval('#detent-diagram', (d) => d.innerText).catch(() => '?')}`);
+                });
+                frame = f;
                 const shown = await frame.$$eval('#detent-diagram g.node > title', (ts) => ts.map((t) => t.textContent));
                 const want = [...states].sort();
                 const got = [...new Set(shown)].sort();
@@ -190,6 +210,7 @@ async function session({ entry, vsix, examples, trust, checks }) {
             }, 90_000);
 
             await checks.run('trusted: the diagram highlights the state under the cursor', async () => {
+                if (!frame) throw new Error('no diagram drawing (see the previous check)');
                 const s = states[states.length - 1];
                 const token = tokenOnLine(page, `state ${s}`, s);
                 await token.click();
@@ -206,6 +227,7 @@ async function session({ entry, vsix, examples, trust, checks }) {
             }
 
             await checks.run('trusted: clicking a state in the diagram reveals it in the source', async () => {
+                if (!frame) throw new Error('no diagram drawing (see the previous check)');
                 const s = states[0];
                 await frame.locator(`#detent-diagram g.node[data-state="${s}"]`).first().click();
                 await waitFor(async () => {

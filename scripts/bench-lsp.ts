@@ -2,7 +2,7 @@
 // - edit → diagnostics: a full-text change to a generated 64-state machine until the server
 //   publishes diagnostics for it (includes the debounce), 50 edits, median and p95;
 // - hover on a state and code lenses right after an edit (cold: the synthesis cache was dropped
-//   by the edit) and again without an edit (warm).
+//   by the edit), after an edit and a typing pause (the idle phase has synthesized), and warm.
 // Targets: edit → diagnostics median ≤ 100 ms; hover and code lens ≤ 200 ms.
 import { LspSession } from '../tests/lsp/harness.js';
 
@@ -63,6 +63,7 @@ try {
     }
     const hoverCold: number[] = [];
     const hoverWarm: number[] = [];
+    const hoverPaused: number[] = [];
     const lensCold: number[] = [];
     const lensWarm: number[] = [];
     const statePosition = (text: string, name: string) => {
@@ -80,6 +81,13 @@ try {
         t = performance.now();
         await session.request('textDocument/hover', { textDocument: { uri }, position });
         hoverWarm.push(performance.now() - t);
+        // typing pause: the idle phase (as-built, synthesis for the editor) has run
+        const paused = conveyor(300 + k);
+        await session.change(uri, paused);
+        await new Promise((r) => setTimeout(r, 900));
+        t = performance.now();
+        await session.request('textDocument/hover', { textDocument: { uri }, position: statePosition(paused, `Z${(k * 5) % STATES}`) });
+        hoverPaused.push(performance.now() - t);
         await session.change(uri, conveyor(200 + k));
         t = performance.now();
         await session.request('textDocument/codeLens', { textDocument: { uri } });
@@ -96,6 +104,7 @@ try {
     report('edit → diagnostics', edit, 100);
     report('hover on a state, after an edit', hoverCold, 200);
     report('hover on a state, warm', hoverWarm, 200);
+    report('hover after an edit and a pause', hoverPaused, 200);
     report('code lenses, after an edit', lensCold, 200);
     report('code lenses, warm', lensWarm, 200);
 } finally {

@@ -86,7 +86,9 @@ export class LspSession {
     static async start(options: StartOptions = {}): Promise<LspSession> {
         const bundle = await serverBundle();
         const args = options.via === 'cli' ? [join(ROOT, 'packages', 'cli', 'dist', 'detent.mjs'), 'lsp', '--stdio'] : [bundle, '--stdio'];
-        const child = spawn(process.execPath, args, { cwd: ROOT, stdio: ['pipe', 'pipe', 'pipe'] });
+        // e.g. DETENT_LSP_NODE_ARGS="--cpu-prof --cpu-prof-dir=/tmp/p" to profile the server
+        const nodeArgs = (process.env['DETENT_LSP_NODE_ARGS'] ?? '').split(' ').filter(Boolean);
+        const child = spawn(process.execPath, [...nodeArgs, ...args], { cwd: ROOT, stdio: ['pipe', 'pipe', 'pipe'] });
         const connection = createProtocolConnection(new StreamMessageReader(child.stdout!), new StreamMessageWriter(child.stdin!));
         const session = new LspSession(child, connection, { encoding: 'machine', flipflop: 'machine', severity: {}, ...(options.settings ?? {}) });
         child.stderr!.on('data', (d: Buffer) => session.stderr.push(d.toString()));

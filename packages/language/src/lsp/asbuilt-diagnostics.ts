@@ -84,8 +84,15 @@ export class AsBuiltDiagnostics {
             .map((d) => withWitnessInfo({ ...d, data: { ...(d.data as object), asBuilt: true } }, uri));
         const kept = (document.diagnostics ?? []).filter((d) => !isAsBuiltDiagnostic(d));
         // nothing new and nothing to withdraw: spare the client a second identical publication
-        if (added.length === 0 && kept.length === (document.diagnostics ?? []).length) return;
-        document.diagnostics = [...kept, ...added];
-        void this.connection.sendDiagnostics({ uri, version, diagnostics: document.diagnostics });
+        if (added.length > 0 || kept.length !== (document.diagnostics ?? []).length) {
+            document.diagnostics = [...kept, ...added];
+            void this.connection.sendDiagnostics({ uri, version, diagnostics: document.diagnostics });
+        }
+        // Still idle: synthesize under the active encoding now, so the next hover or lens is warm.
+        const model = this.detent.lsp.DetentDocumentModel;
+        for (const entry of model.machines(document)) {
+            if (this.stale(document, uri, version)) return;
+            model.synthesis(document, entry);
+        }
     }
 }

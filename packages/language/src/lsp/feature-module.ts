@@ -50,6 +50,7 @@ export const DetentLspFeatureModule: Module<DetentServices, PartialLangiumServic
     validation: {
         DocumentValidator: (services) => new DetentEditorValidator(services),
     },
+
 };
 
 /** Shared (workspace-wide) editor services: debounced, cancelling rebuilds. */

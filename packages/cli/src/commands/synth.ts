@@ -6,7 +6,7 @@
 import { parseDetent } from '@detent/language';
 import {
     type EncodingKind, type Finding, type FlipFlopKind, type RecoveryReport, type SynthesisResult,
-    ENCODING_KINDS, FLIPFLOP_KINDS, FREE, ONE, SynthesisError, analyzeMachine, coverText, getVar, isUniverse,
+    ENCODING_KINDS, FLIPFLOP_KINDS, FREE, ONE, SynthesisError, analyzeMachine, asyncInputFindings, coverText, getVar, isUniverse,
     printOrder, recoveryReport, synthesize,
 } from '@detent/core';
 import { parseArgs, stringFlag } from '../args.js';
@@ -53,7 +53,7 @@ function productObject(r: SynthesisResult, cube: Uint32Array): Record<string, 0 
     return o;
 }
 
-export function synthJson(r: SynthesisResult, recovery: RecoveryReport): object {
+export function synthJson(r: SynthesisResult, recovery: RecoveryReport, findings: readonly Finding[] = []): object {
     const codes: Record<string, string> = {};
     r.machine.states.forEach((s, i) => { codes[s.name] = r.assignment.codes[i]!; });
     return {
@@ -79,6 +79,7 @@ export function synthJson(r: SynthesisResult, recovery: RecoveryReport): object 
             outputFlipflops: r.outputFlipflops ?? 0,
         },
         recovery,
+        findings: findings.map((f) => ({ code: f.code, severity: f.severity, message: f.message, ...(f.signal ? { signal: f.signal } : {}) })),
         ...(r.assignment.note ? { note: r.assignment.note } : {}),
         ...(r.notes && r.notes.length ? { notes: r.notes } : {}),
     };
@@ -110,7 +111,7 @@ export function recoveryText(rep: RecoveryReport): string[] {
     return lines;
 }
 
-export function synthText(r: SynthesisResult, recovery: RecoveryReport): string {
+export function synthText(r: SynthesisResult, recovery: RecoveryReport, findings: readonly Finding[] = []): string {
     const out: string[] = [];
     out.push(`machine ${r.machine.name}: encoding ${r.assignment.encoding}, ${r.flipflop} flip-flops, width ${r.assignment.width}`);
     if (r.assignment.note) out.push(r.assignment.note);
@@ -124,6 +125,7 @@ export function synthText(r: SynthesisResult, recovery: RecoveryReport): string 
     const c = r.cost;
     out.push(`cost: ${c.flipflops} flip-flops${r.outputFlipflops ? ` (${r.outputFlipflops} for registered outputs)` : ''}, ${c.literals} literals, ${c.gateInputs} gate inputs, ${c.products} products, max fan-in ${c.maxFanIn}`);
     out.push(...recoveryText(recovery));
+    for (const f of findings) out.push(`${f.severity} ${f.code}: ${f.message}`);
     for (const n of r.notes ?? []) out.push(`note: ${n}`);
     out.push('Detent checks logic, not safety certification; defer to the applicable codes and licensed practice.');
     return `${out.join('\n')}\n`;
@@ -170,7 +172,8 @@ export async function synthCommand(args: readonly string[], io: CliIO): Promise<
         throw err;
     }
     const recovery = recoveryReport(result, { budgetMs: 5000, synthesis: { encoding, flipflop } });
-    if (stringFlag(parsed, 'format') === 'json') io.stdout(`${JSON.stringify(synthJson(result, recovery), null, 2)}\n`);
-    else io.stdout(synthText(result, recovery));
+    const findings = asyncInputFindings(result);
+    if (stringFlag(parsed, 'format') === 'json') io.stdout(`${JSON.stringify(synthJson(result, recovery, findings), null, 2)}\n`);
+    else io.stdout(synthText(result, recovery, findings));
     return 0;
 }

@@ -59,8 +59,18 @@ export function autoSynthesize(machine: Machine, flipflop: FlipFlopKind, options
     };
     const ranked: Candidate[] = [];
     const seen = new Set<string>();
+    // Runners-up that are only a bit permutation (or, for T/JK/SR, complement) of a listed one are noise.
+    const complementSymmetric = pinned >= 0 && !clear;
+    const canonicalKey = (codes: readonly number[]): string => {
+        const columns: string[] = [];
+        for (let j = 0; j < width; j++) {
+            const flip = complementSymmetric ? (codes[0]! >> j) & 1 : 0;
+            columns.push(codes.map((c) => ((c >> j) & 1) ^ flip).join(''));
+        }
+        return columns.sort().join('|');
+    };
     const consider = (c: Candidate) => {
-        const key = c.codes.join(',');
+        const key = canonicalKey(c.codes);
         if (seen.has(key)) return;
         seen.add(key);
         ranked.push(c);

@@ -16,7 +16,7 @@ describe('synthesis reproduces the model (exhaustive simulation)', () => {
             for (const encoding of ENCODINGS) {
                 if (encoding === 'explicit' && machine.encoding !== 'explicit') continue;
                 for (const flipflop of FLIPFLOPS) {
-                    const r = synthesize(machine, { encoding, flipflop, budgetMs: 5 });
+                    const r = synthesize(machine, { encoding, flipflop, budgetMs: 2 });
                     verify(machine, r);
                     checked++;
                 }

@@ -5,7 +5,9 @@
  * written independently of the exporters' own scenario testbenches.
  */
 import { spawn, spawnSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { parseDetent } from '@detent/language';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { EncodingKind, FlipFlopKind, Machine, SynthesisResult } from '@detent/core';
@@ -101,7 +103,7 @@ export interface CorpusMachine {
  * `otherwise dontcare` (the structural export may do anything there) and no `reset … clear`
  * onto a code that is no state without `recover` (a `reset-code` error).
  */
-export function randomCorpus(count: number, seed: number, prefix = 'R'): CorpusMachine[] {
+export function randomCorpus(count: number, seed: number, prefix = 'R', dontcare = false): CorpusMachine[] {
     const rng = mulberry32(seed);
     const out: CorpusMachine[] = [];
     let attempt = 0;
@@ -109,7 +111,7 @@ export function randomCorpus(count: number, seed: number, prefix = 'R'): CorpusM
         const i = out.length;
         const encoding = ENCODINGS[i % ENCODINGS.length]!;
         const flipflop = FLIPFLOPS[Math.floor(i / ENCODINGS.length) % FLIPFLOPS.length]!;
-        const machine = randomMachine(rng, { dontcare: false, encodings: [encoding], flipflops: [flipflop], maxStates: 7 }, `${prefix}${i}`);
+        const machine = randomMachine(rng, { dontcare, encodings: [encoding], flipflops: [flipflop], maxStates: 7 }, `${prefix}${i}`);
         attempt++;
         if (attempt > count * 20) throw new Error('corpus: too many rejected machines');
         let synth: SynthesisResult;
@@ -120,6 +122,27 @@ export function randomCorpus(count: number, seed: number, prefix = 'R'): CorpusM
         }
         if (machine.reset?.target === 'clear' && clearResetState(synth.assignment) === undefined && !machine.recover) continue;
         out.push({ machine, synth });
+    }
+    return out;
+}
+
+export const ROOT = fileURLToPath(new URL('../../', import.meta.url));
+
+export interface ExampleMachine extends CorpusMachine {
+    readonly file: string;
+    readonly text: string;
+}
+
+/** Every usable machine of examples/*.detent (the realistic examples; defects/ is not included). */
+export function exampleMachines(): ExampleMachine[] {
+    const dir = join(ROOT, 'examples');
+    const out: ExampleMachine[] = [];
+    for (const name of readdirSync(dir).filter((n) => n.endsWith('.detent')).sort()) {
+        const text = readFileSync(join(dir, name), 'utf8');
+        for (const lm of parseDetent(text).machines) {
+            if (!lm.usable || lm.findings.some((f) => f.severity === 'error')) throw new Error(`example ${name}: machine ${lm.machine.name} has errors`);
+            out.push({ file: name, text, machine: lm.machine, synth: synthesize(lm.machine, { budgetMs: 200 }) });
+        }
     }
     return out;
 }

@@ -4,6 +4,7 @@
 // - hover on a state and code lenses right after an edit (cold: the synthesis cache was dropped
 //   by the edit), after an edit and a typing pause (the idle phase has synthesized), and warm.
 // Targets: edit → diagnostics median ≤ 100 ms; hover and code lens ≤ 200 ms.
+import { loadavg, cpus } from 'node:os';
 import { LspSession } from '../tests/lsp/harness.js';
 
 const STATES = Number(process.argv[2] ?? 64);
@@ -46,6 +47,7 @@ function stats(samples: number[]): { median: number; p95: number; max: number } 
 
 const fmt = (x: number) => `${x.toFixed(1)} ms`;
 
+console.log(`machine: ${cpus().length} CPUs, load average ${loadavg().map((l) => l.toFixed(1)).join(' / ')} (1/5/15 min) — figures scale with load`);
 const session = await LspSession.start();
 const uri = 'file:///tmp/detent-bench/conveyor.detent';
 try {

@@ -62,7 +62,11 @@ const cases: Case[] = [
 ];
 
 const args = process.argv.slice(2);
-const runs = Number(args[args.indexOf('--runs') + 1] ?? '') || 15;
+const flag = (name: string, fallback: number) => { const i = args.indexOf(name); return i >= 0 ? Number(args[i + 1]) || fallback : fallback; };
+/** Runs of the design analyses (fast, this script's main figure). */
+const runs = flag('--runs', 15);
+/** Runs of the full check paths, which include synthesis-based analyses of other modules. */
+const fullRuns = flag('--full-runs', 3);
 const asJson = args.includes('--json');
 
 function median(xs: number[]): number {
@@ -71,48 +75,57 @@ function median(xs: number[]): number {
     return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
 }
 
-function time(fn: () => unknown): number[] {
-    for (let i = 0; i < 3; i++) fn(); // warm-up: let the JIT settle
+function time(fn: () => unknown, n: number): number {
+    for (let i = 0; i < Math.min(3, n); i++) fn(); // warm-up: let the JIT settle
     const times: number[] = [];
-    for (let i = 0; i < runs; i++) {
+    for (let i = 0; i < n; i++) {
         const t0 = performance.now();
         fn();
         times.push(performance.now() - t0);
     }
-    return times;
+    return median(times);
 }
 
+/** Mean CPU time (user + system) of n runs: steadier than wall time on a shared, loaded machine. */
+function cpuTime(fn: () => unknown, n: number): number {
+    for (let i = 0; i < Math.min(3, n); i++) fn();
+    const c0 = process.cpuUsage();
+    for (let i = 0; i < n; i++) fn();
+    const c = process.cpuUsage(c0);
+    return (c.user + c.system) / 1000 / n;
+}
 
+const ms = (x: number) => `${x.toFixed(1)} ms`;
 const results: Record<string, unknown>[] = [];
+if (!asJson) process.stdout.write(`check benchmark (wall-time medians, CPU time = mean; design analyses ${runs} runs, full paths ${fullRuns} runs)\n`);
 for (const c of cases) {
     const machine: Machine = randomMachine(mulberry32(20261202), c.options, 'BenchMachine');
-    const findings = checkMachine(machine);
-    const row: Record<string, unknown> = {
-        case: c.name,
-        states: machine.states.length,
-        transitions: machine.states.reduce((a, s) => a + s.transitions.length, 0),
-        findings: findings.length,
-        analyzeMs: median(time(() => analyzeMachine(machine))),
-        checkMs: median(time(() => checkMachine(machine))),
-        targetMs: c.targetMs,
-    };
     const text = machineToText(machine);
     const parsed = parseDetent(text);
     const problems = parsed.findings.filter((f) => f.severity === 'error');
     if (problems.length > 0 || parsed.machines.length !== 1) throw new Error(`generated text does not parse cleanly: ${problems[0]?.message}`);
-    row['textBytes'] = text.length;
-    row['textFindings'] = checkText(text).length;
-    row['parseMs'] = median(time(() => parseDetent(text)));
-    row['checkTextMs'] = median(time(() => checkText(text)));
+    const row = {
+        case: c.name,
+        states: machine.states.length,
+        transitions: machine.states.reduce((a, s) => a + s.transitions.length, 0),
+        designFindings: analyzeMachine(machine).length,
+        targetMs: c.targetMs,
+        /** The design analyses of packages/core/src/analysis. */
+        analyzeMs: time(() => analyzeMachine(machine), runs),
+        analyzeCpuMs: cpuTime(() => analyzeMachine(machine), runs),
+        /** checkMachine without the synthesis-based (as-built) analyses. */
+        checkDesignMs: time(() => checkMachine(machine, { skipAsBuilt: true }), runs),
+        /** checkMachine with everything (as-built analyses synthesize the machine). */
+        checkMs: time(() => checkMachine(machine), fullRuns),
+        textChars: text.length,
+        parseMs: time(() => parseDetent(text), fullRuns),
+        checkTextMs: time(() => checkText(text), fullRuns),
+    };
     results.push(row);
-}
-
-if (asJson) {
-    process.stdout.write(JSON.stringify({ runs, results }, null, 2) + '\n');
-} else {
-    process.stdout.write(`check benchmark (median of ${runs} runs, parse excluded unless noted)\n`);
-    for (const r of results) {
-        const text = `; text (${r['textBytes']} chars): parse+lower ${(r['parseMs'] as number).toFixed(1)} ms, checkText ${(r['checkTextMs'] as number).toFixed(1)} ms`;
-        process.stdout.write(`${String(r['case']).padEnd(34)} ${r['transitions']} transitions, ${r['findings']} findings: analyze ${(r['analyzeMs'] as number).toFixed(1)} ms, check ${(r['checkMs'] as number).toFixed(1)} ms (target ≤ ${r['targetMs']} ms)${text}\n`);
+    if (!asJson) {
+        process.stdout.write(`${row.case} (${row.transitions} transitions, ${row.designFindings} design findings; target ≤ ${row.targetMs} ms)\n`
+            + `    design analyses ${ms(row.analyzeMs)} (CPU ${ms(row.analyzeCpuMs)}) | check w/o as-built ${ms(row.checkDesignMs)} | full check ${ms(row.checkMs)}\n`
+            + `    text ${row.textChars} chars: parse+lower ${ms(row.parseMs)} | checkText ${ms(row.checkTextMs)}\n`);
     }
 }
+if (asJson) process.stdout.write(JSON.stringify({ runs, fullRuns, results }, null, 2) + '\n');

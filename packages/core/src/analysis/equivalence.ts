@@ -49,10 +49,9 @@ export function equivalenceClasses(machine: Machine, space: MachineSpace): Int32
         return idx;
     });
     let cls = new Int32Array(n);
-    let count = 1;
     let special = 0;
     space.states.forEach((st, s) => { if (st.dontcare) { cls[s] = -1 - special++; } });
-    count = special + (space.states.some((st) => !st.dontcare) ? 1 : 0);
+    let count = special + (space.states.some((st) => !st.dontcare) ? 1 : 0);
 
     const sameStep = (a: number, b: number, c: Int32Array): boolean => {
         for (const ra of space.states[a]!.regions) for (const rb of space.states[b]!.regions) {
@@ -62,33 +61,48 @@ export function equivalenceClasses(machine: Machine, space: MachineSpace): Int32
         return true;
     };
 
+    const width = 1 + 2 * samples.length;
+    const sig = new Int32Array(n * width);
+    const hashes = new Uint32Array(n);
+    const sameSig = (a: number, b: number): boolean => {
+        for (let k = 0; k < width; k++) if (sig[a * width + k] !== sig[b * width + k]) return false;
+        return true;
+    };
     for (;;) {
-        const buckets = new Map<string, number[]>();
+        // Signature: own class, then (outputs, next class) at every sample; hashed (FNV-1a) for bucketing.
+        const buckets = new Map<number, number[]>();
         for (let s = 0; s < n; s++) {
             const regions = space.states[s]!.regions;
-            const parts: number[] = [cls[s]!];
             const idx = at[s]!;
+            const base = s * width;
+            sig[base] = cls[s]!;
+            let h = (0x811c9dc5 ^ cls[s]!) >>> 0;
             for (let k = 0; k < idx.length; k++) {
                 const r = regions[idx[k]!]!;
-                parts.push(r.outputs, cls[r.target]!);
+                const o = r.outputs;
+                const t = cls[r.target]!;
+                sig[base + 1 + 2 * k] = o;
+                sig[base + 2 + 2 * k] = t;
+                h = Math.imul(h ^ o, 0x01000193) >>> 0;
+                h = Math.imul(h ^ t, 0x01000193) >>> 0;
             }
-            const key = parts.join(',');
-            const b = buckets.get(key);
-            if (b) b.push(s); else buckets.set(key, [s]);
+            hashes[s] = h;
+            const bucket = buckets.get(h);
+            if (bucket) bucket.push(s); else buckets.set(h, [s]);
         }
-        const next = new Int32Array(n);
+        // Class ids are handed out in order of each class's first member, i.e. declaration order.
+        const next = new Int32Array(n).fill(-1);
+        const reps: number[] = [];
         let fresh = 0;
-        for (const members of buckets.values()) {
-            // Buckets are visited in order of their first member, so ids follow declaration order.
-            const reps: number[] = [];
-            const repClass: number[] = [];
-            for (const s of members) {
-                let found = -1;
-                if (exhaustive) found = reps.length > 0 ? 0 : -1;
-                else for (let r = 0; r < reps.length; r++) if (sameStep(reps[r]!, s, cls)) { found = r; break; }
-                if (found < 0) { reps.push(s); repClass.push(fresh++); found = reps.length - 1; }
-                next[s] = repClass[found]!;
+        for (let s = 0; s < n; s++) {
+            if (next[s] !== -1) continue;
+            next[s] = fresh;
+            reps.push(s);
+            for (const t of buckets.get(hashes[s]!)!) {
+                if (t <= s || next[t] !== -1) continue;
+                if (sameSig(s, t) && (exhaustive || sameStep(s, t, cls))) next[t] = fresh;
             }
+            fresh++;
         }
         cls = next;
         if (fresh === count) break;

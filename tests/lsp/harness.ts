@@ -5,13 +5,13 @@
  * Several test files may run in parallel processes: the build runs under a lock directory and each
  * process spawns its own copy of the bundle, so one file's rebuild never tears another's server.
  */
-import { spawn, execFileSync, type ChildProcess } from 'node:child_process';
+import { spawn, fork, execFileSync, type ChildProcess } from 'node:child_process';
 import { copyFileSync, existsSync, mkdirSync, mkdtempSync, rmSync, rmdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import {
     type Diagnostic, type ProtocolConnection, type PublishDiagnosticsParams, type InitializeResult,
-    StreamMessageReader, StreamMessageWriter, createProtocolConnection,
+    StreamMessageReader, StreamMessageWriter, IPCMessageReader, IPCMessageWriter, createProtocolConnection,
     DidOpenTextDocumentNotification, DidChangeTextDocumentNotification, PublishDiagnosticsNotification,
     InitializeRequest, InitializedNotification, ShutdownRequest, ExitNotification, DidChangeConfigurationNotification,
     ConfigurationRequest, RegistrationRequest, WorkDoneProgressCreateRequest,
@@ -68,7 +68,7 @@ export interface StartOptions {
     /** Sent as initializationOptions and answered to workspace/configuration for section `detent`. */
     readonly settings?: Record<string, unknown>;
     /** 'server' (default): server/dist/server.mjs --stdio; 'cli': packages/cli/dist/detent.mjs lsp --stdio. */
-    readonly via?: 'server' | 'cli';
+    readonly via?: 'server' | 'cli' | 'ipc';
 }
 
 export class LspSession {
@@ -88,8 +88,13 @@ export class LspSession {
         const args = options.via === 'cli' ? [join(ROOT, 'packages', 'cli', 'dist', 'detent.mjs'), 'lsp', '--stdio'] : [bundle, '--stdio'];
         // e.g. DETENT_LSP_NODE_ARGS="--cpu-prof --cpu-prof-dir=/tmp/p" to profile the server
         const nodeArgs = (process.env['DETENT_LSP_NODE_ARGS'] ?? '').split(' ').filter(Boolean);
-        const child = spawn(process.execPath, [...nodeArgs, ...args], { cwd: ROOT, stdio: ['pipe', 'pipe', 'pipe'] });
-        const connection = createProtocolConnection(new StreamMessageReader(child.stdout!), new StreamMessageWriter(child.stdin!));
+        const ipc = options.via === 'ipc';
+        const child = ipc
+            ? fork(bundle, ['--node-ipc'], { cwd: ROOT, execArgv: nodeArgs, stdio: ['pipe', 'pipe', 'pipe', 'ipc'] })
+            : spawn(process.execPath, [...nodeArgs, ...args], { cwd: ROOT, stdio: ['pipe', 'pipe', 'pipe'] });
+        const connection = ipc
+            ? createProtocolConnection(new IPCMessageReader(child), new IPCMessageWriter(child))
+            : createProtocolConnection(new StreamMessageReader(child.stdout!), new StreamMessageWriter(child.stdin!));
         const session = new LspSession(child, connection, { encoding: 'machine', flipflop: 'machine', severity: {}, ...(options.settings ?? {}) });
         child.stderr!.on('data', (d: Buffer) => session.stderr.push(d.toString()));
         connection.onNotification(PublishDiagnosticsNotification.type, (p) => session.onDiagnostics(p));

@@ -516,6 +516,19 @@ describe('active encoding from the settings', () => {
     });
 });
 
+describe('transports', () => {
+    it('serves over --node-ipc (how the VS Code client starts it)', async () => {
+        const ipc = await LspSession.start({ via: 'ipc' });
+        try {
+            const uri = freshUri('ipc');
+            const ds = await ipc.open(uri, BARRIER);
+            expect(codes(ds)).toEqual(expect.arrayContaining(['incomplete', 'overlap', 'unused-input']));
+        } finally {
+            await ipc.stop();
+        }
+    });
+});
+
 describe('detent lsp --stdio', () => {
     it('runs the same server from the CLI bundle', async () => {
         const cli = await LspSession.start({ via: 'cli' });

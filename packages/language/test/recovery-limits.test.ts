@@ -45,6 +45,17 @@ describe('error recovery', () => {
         expect(r.machines[0]!.usable).toBe(false);
     });
 
+    test('a keyword used as a name gets a message saying so', () => {
+        const t = 'machine P { input high; state X { otherwise stay; } }';
+        const f = parseDetent(t).findings;
+        expect(f.map((x) => [x.code, x.range])).toEqual([['syntax', at(t, 'high')]]);
+        expect(f[0]!.message).toBe("'high' is a Detent keyword and cannot be used as a name here");
+    });
+
+    test('a byte-order mark at the start is ignored', () => {
+        expect(parseDetent('\uFEFFmachine P { state X { otherwise stay; } }').findings).toEqual([]);
+    });
+
     test('unexpected characters are syntax errors at their position', () => {
         const t = 'machine P { input a; state X { when a $ -> X; otherwise stay; } }';
         expect(parseDetent(t).findings.map((f) => [f.code, f.range])).toEqual([['syntax', at(t, '$')]]);

@@ -9,6 +9,10 @@ import { prescan } from '../syntax/limits.js';
 export function createDetentParser(services: LangiumCoreServices): LangiumParser {
     const parser = createLangiumParser(services);
     const parse = parser.parse.bind(parser);
-    parser.parse = ((input: string, options?: Parameters<LangiumParser['parse']>[1]) => parse(prescan(input).text, options)) as LangiumParser['parse'];
+    parser.parse = ((input: string, options?: Parameters<LangiumParser['parse']>[1]) => {
+        // a byte-order mark is no character of the language; a space keeps every offset
+        const text = input.charCodeAt(0) === 0xfeff ? ` ${input.slice(1)}` : input;
+        return parse(prescan(text).text, options);
+    }) as LangiumParser['parse'];
     return parser;
 }

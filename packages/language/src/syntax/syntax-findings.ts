@@ -25,7 +25,11 @@ export function parserFindings(errors: readonly IRecognitionException[], lines: 
         const offset = atEnd ? text.length : token.startOffset;
         const length = atEnd ? 0 : (token.endOffset ?? token.startOffset) - token.startOffset + 1;
         const range = atEnd ? { start: lines.end(), end: lines.end() } : lines.range(offset, length);
-        return { finding: finding('syntax', shorten(e.message, atEnd ? 'end of file' : `'${token.image}'`), range), offset };
+        const keywordAsName = !atEnd && /^[A-Za-z_]\w*$/.test(token.image) && /'Name'|\[Name\]|Name\b/.test(e.message) && !/Name/.test(token.tokenType?.name ?? '');
+        const message = keywordAsName
+            ? `'${token.image}' is a Detent keyword and cannot be used as a name here`
+            : shorten(e.message, atEnd ? 'end of file' : `'${token.image}'`);
+        return { finding: finding('syntax', message, range), offset };
     });
 }
 

@@ -348,6 +348,14 @@ describe('editing features', () => {
         expect(encodings).toEqual(expect.arrayContaining(['binary', 'gray', 'onehot', 'onecold', 'johnson', 'explicit', 'auto']));
         const flipflops = await labels('D;', 0);
         expect(flipflops).toEqual(expect.arrayContaining(['D', 'T', 'JK', 'SR']));
+        // keywords in context (LANGUAGE.md grammar): state items at the start of a state's line,
+        // declarations at the start of a machine's line — and not the other way round
+        const inState = await labels('when open_cmd -> Open;', 0);
+        expect(inState).toEqual(expect.arrayContaining(['emit', 'when', 'otherwise']));
+        expect(inState).not.toContain('input');
+        const inMachine = await labels('state Open {', 0);
+        expect(inMachine).toEqual(expect.arrayContaining(['input', 'output', 'state', 'scenario', 'encoding', 'flipflop', 'recover']));
+        expect(inMachine).not.toContain('when');
     });
 
     it('renames a state everywhere and refuses reserved or taken names', async () => {

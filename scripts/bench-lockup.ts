@@ -76,6 +76,14 @@ if (isMain) {
             console.log(`${String(n).padStart(10)}  ${ff.padEnd(2)}  ${med(synthTimes).padStart(5)}  ${med(lockTimes).padStart(6)}  ${analysis.method.padEnd(8)}  ${String(analysis.lockup).padEnd(7)}  ${String(analysis.worstLatency ?? '-').padStart(13)}  ${agree}`);
         }
     }
+    console.log('with recover -> Station0 (unused codes specified; no lock-up expected, latency 1):');
+    for (const n of [16, 32, 64]) {
+        for (const ff of ['D', 'T', 'JK', 'SR'] as const) {
+            const [r, ts] = time(() => synthesize(indexingTable(n, ff, true)));
+            const [a, tl] = time(() => symbolicSafety(r));
+            console.log(`${String(n).padStart(10)}  ${ff.padEnd(2)}  ${ts.toFixed(1).padStart(7)}  ${tl.toFixed(1).padStart(6)}  ${a.method.padEnd(8)}  ${String(a.lockup).padEnd(7)}  ${String(a.worstLatency ?? '-').padStart(13)}`);
+        }
+    }
     const [report, t] = time(() => recoveryReport(indexingTable(64, 'D', true)));
-    console.log(`recover -> Station0, 64 one-hot D: full recovery report ${t.toFixed(1)} ms; lockup ${report.lockup}, worst latency ${report.worstLatency}, cost delta ${JSON.stringify(report.recoverCostDelta)}`);
+    console.log(`recovery report (2 syntheses + analysis), 64 one-hot D with recover: ${t.toFixed(1)} ms; cost delta of recover ${JSON.stringify(report.recoverCostDelta)}`);
 }

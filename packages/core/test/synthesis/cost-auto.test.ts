@@ -183,9 +183,11 @@ describe('one-hot at 64 states', () => {
     });
 
     it('symbolic agrees with explicit on the same structure at 12 states', () => {
-        for (const flipflop of FLIPFLOPS) {
-            const r = synthesize(indexingTable(12, flipflop));
+        for (const flipflop of FLIPFLOPS) for (const recover of [false, true]) {
+            const machine = indexingTable(12, flipflop);
+            const r = synthesize(recover ? { ...machine, recover: { target: 0, range: R } } : machine);
             const e = explicitSafety(r), s = symbolicSafety(r);
+            if (recover) { expect(e.lockup).toBe(false); expect(e.worstLatency).toBe(1); }
             expect(s.lockup).toBe(e.lockup);
             expect(s.worstLatency).toBe(e.worstLatency);
             for (let u = 0; u < 4096; u += 7) {

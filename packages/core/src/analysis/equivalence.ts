@@ -121,7 +121,7 @@ export function equivalenceFindings(machine: Machine, space: MachineSpace): Find
         if (p === undefined) { first.set(c, s); return; }
         const partner = machine.states[p]!;
         out.push(finding('equivalent',
-            `equivalent: state '${state.name}' cannot be told apart from state '${partner.name}' by any input sequence (same outputs, equivalent next states); the two can be merged`,
+            `state '${state.name}' cannot be told apart from state '${partner.name}' by any input sequence (same outputs, equivalent next states); the two can be merged`,
             state.nameRange, { state: state.name, related: [{ message: `equivalent state '${partner.name}'`, range: partner.nameRange }] }));
     });
     return out;

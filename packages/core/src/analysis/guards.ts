@@ -33,7 +33,7 @@ export function guardFindings(machine: Machine, space: MachineSpace): Finding[] 
         // never: any state, a guard no input makes true.
         st.guards.forEach((g, i) => {
             if (g.length > 0) return;
-            out.push(finding('never', `never: the guard of ${transitionLabel(ts[i]!, machine)} in state '${state.name}' is never true; the transition can never be taken`, ts[i]!.guard.range, { state: state.name }));
+            out.push(finding('never', `the guard of ${transitionLabel(ts[i]!, machine)} in state '${state.name}' is never true; the transition can never be taken`, ts[i]!.guard.range, { state: state.name }));
         });
         if (!state.priority) {
             // overlap: every pair with different effects that can both be true.
@@ -45,7 +45,7 @@ export function guardFindings(machine: Machine, space: MachineSpace): Finding[] 
                     const inputs = mintermInputs(machine, ctx, bits);
                     const relevant = fixedInputs(machine, ctx, [...st.guards[i]!, ...st.guards[j]!]);
                     out.push(finding('overlap',
-                        `overlap: guards of ${transitionLabel(ts[i]!, machine)} and ${transitionLabel(ts[j]!, machine)} in state '${state.name}' are both true for ${formatInputs(inputs, relevant)}, and the transitions differ (the first one in source order is taken)`,
+                        `the guards of ${transitionLabel(ts[i]!, machine)} and ${transitionLabel(ts[j]!, machine)} in state '${state.name}' are both true for ${formatInputs(inputs, relevant)}, and the transitions differ (the first one in source order is taken)`,
                         ts[j]!.guard.range,
                         { state: state.name, witness: { inputs }, related: [{ message: `overlapping guard ${transitionLabel(ts[i]!, machine)}`, range: ts[i]!.guard.range }] }));
                 }
@@ -59,7 +59,7 @@ export function guardFindings(machine: Machine, space: MachineSpace): Finding[] 
                 const inputs = mintermInputs(machine, ctx, bits);
                 const relevant = fixedInputs(machine, ctx, [...g, ...st.guards[winner]!]);
                 out.push(finding('shadowed',
-                    `shadowed: ${transitionLabel(ts[i]!, machine)} in priority state '${state.name}' is never the first true guard: earlier guards are true wherever it is (for ${formatInputs(inputs, relevant)}, ${transitionLabel(ts[winner]!, machine)} is taken)`,
+                    `the guard of ${transitionLabel(ts[i]!, machine)} in priority state '${state.name}' is never the first true one: earlier guards are true wherever it is (for ${formatInputs(inputs, relevant)}, ${transitionLabel(ts[winner]!, machine)} is taken)`,
                     ts[i]!.guard.range,
                     { state: state.name, witness: { inputs }, related: [{ message: `taken first: ${transitionLabel(ts[winner]!, machine)}`, range: ts[winner]!.guard.range }] }));
             });
@@ -70,7 +70,7 @@ export function guardFindings(machine: Machine, space: MachineSpace): Finding[] 
             const inputs = mintermInputs(machine, ctx, bits);
             const relevant = fixedInputs(machine, ctx, st.covered);
             out.push(finding('incomplete',
-                `incomplete: no transition of state '${state.name}' is taken for ${formatInputs(inputs, relevant)}; the state holds there (add 'otherwise' to say what happens)`,
+                `no transition of state '${state.name}' is taken for ${formatInputs(inputs, relevant)}; the state holds there (add 'otherwise' to say what happens)`,
                 state.nameRange, { state: state.name, witness: { inputs } }));
         }
     });

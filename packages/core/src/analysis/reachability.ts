@@ -78,14 +78,14 @@ export function reachability(machine: Machine, space: MachineSpace): Reachabilit
     machine.states.forEach((state, s) => {
         if (!reachable[s]) {
             findings.push(finding('unreachable',
-                `unreachable: no sequence of inputs leads from the ${start.role} '${startName}' to state '${state.name}'`,
+                `no sequence of inputs leads from the ${start.role} '${startName}' to state '${state.name}'`,
                 state.nameRange, { state: state.name, related: [{ message: `${start.role} '${startName}' (${start.why})`, range: machine.states[start.index]!.nameRange }] }));
         } else if (!returns[s]) {
             const path: string[] = [];
             for (let v = s; v >= 0; v = parent[v]!) path.push(machine.states[v]!.name);
             path.reverse();
             findings.push(finding('no-return',
-                `no-return: once in state '${state.name}' the machine can never get back to the ${start.role} '${startName}'${machine.reset ? ' without a reset' : ''} (reached by ${path.join(' → ')})`,
+                `once in state '${state.name}' the machine can never get back to the ${start.role} '${startName}'${machine.reset ? ' without a reset' : ''} (reached by ${path.join(' → ')})`,
                 state.nameRange, { state: state.name, witness: { path }, related: [{ message: `${start.role} '${startName}'`, range: machine.states[start.index]!.nameRange }] }));
         }
     });

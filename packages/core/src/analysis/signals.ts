@@ -32,15 +32,15 @@ export function outputsAssigned(machine: Machine): Set<number> {
 export function signalFindings(machine: Machine): Finding[] {
     const out: Finding[] = [];
     if (!machine.reset) {
-        out.push(finding('no-reset', `no-reset: machine '${machine.name}' declares no reset, so its power-up state is undefined in hardware (declare 'reset r -> S;')`, machine.nameRange));
+        out.push(finding('no-reset', `machine '${machine.name}' declares no reset, so its power-up state is undefined in hardware (declare 'reset r -> S;')`, machine.nameRange));
     }
     const read = inputsRead(machine);
     machine.inputs.forEach((input, i) => {
-        if (!read.has(i)) out.push(finding('unused-input', `unused-input: input '${input.name}' is declared but no guard reads it`, input.nameRange, { signal: input.name }));
+        if (!read.has(i)) out.push(finding('unused-input', `input '${input.name}' is declared but no guard reads it`, input.nameRange, { signal: input.name }));
     });
     const assigned = outputsAssigned(machine);
     machine.outputs.forEach((output, i) => {
-        if (!assigned.has(i)) out.push(finding('unused-output', `unused-output: output '${output.name}' is declared but no emit assigns it; it is always 0`, output.nameRange, { signal: output.name }));
+        if (!assigned.has(i)) out.push(finding('unused-output', `output '${output.name}' is declared but no emit assigns it; it is always 0`, output.nameRange, { signal: output.name }));
     });
     return out;
 }

@@ -52,7 +52,7 @@ describe('guard analyses on a press guard controller', () => {
         expect(f!.related).toEqual([{ message: "overlapping guard 'when two_hand & guard_closed'", range: idle.transitions[0]!.guard.range }]);
         // Smallest witness: the three inputs both guards need set, the bus at 0.
         expect(f!.witness).toEqual({ inputs: { two_hand: 1, guard_closed: 1, overload: 1, pressure: 0 } });
-        expect(f!.message).toBe("overlap: guards of 'when two_hand & guard_closed' and 'when overload' in state 'Idle' are both true for two_hand=1, guard_closed=1, overload=1 (other inputs 0), and the transitions differ (the first one in source order is taken)");
+        expect(f!.message).toBe("the guards of 'when two_hand & guard_closed' and 'when overload' in state 'Idle' are both true for two_hand=1, guard_closed=1, overload=1 (other inputs 0), and the transitions differ (the first one in source order is taken)");
         expect(idle.transitions.every((t) => evalGuard(t.guard, values(m, f!)))).toBe(true);
     });
 
@@ -63,14 +63,14 @@ describe('guard analyses on a press guard controller', () => {
         expect(f!.state).toBe('Pressing');
         expect(f!.witness).toEqual({ inputs: { two_hand: 0, guard_closed: 0, overload: 1, pressure: 12 } });
         expect(f!.related?.[0]?.range).toEqual(p.transitions[0]!.guard.range);
-        expect(f!.message).toBe("shadowed: 'when overload & pressure >= 12' in priority state 'Pressing' is never the first true guard: earlier guards are true wherever it is (for overload=1, pressure=12 (other inputs 0), 'when overload' is taken)");
+        expect(f!.message).toBe("the guard of 'when overload & pressure >= 12' in priority state 'Pressing' is never the first true one: earlier guards are true wherever it is (for overload=1, pressure=12 (other inputs 0), 'when overload' is taken)");
     });
 
     it('never: a 4-bit bus is never above 15; never is not also shadowed', () => {
         const [f] = only(fs, 'never');
         expect(f!.range).toEqual(state(m, 'Pressing').transitions[3]!.guard.range);
         expect(f!.severity).toBe('warning');
-        expect(f!.message).toBe("never: the guard of 'when pressure > 15' in state 'Pressing' is never true; the transition can never be taken");
+        expect(f!.message).toBe("the guard of 'when pressure > 15' in state 'Pressing' is never true; the transition can never be taken");
         expect(f!.witness).toBeUndefined();
     });
 
@@ -81,13 +81,13 @@ describe('guard analyses on a press guard controller', () => {
         // Uncovered: overload=1 alone escapes `!overload & pressure < 4`.
         expect(f!.witness).toEqual({ inputs: { two_hand: 0, guard_closed: 0, overload: 1, pressure: 0 } });
         expect(fault.transitions.some((t) => evalGuard(t.guard, values(m, f!)))).toBe(false);
-        expect(f!.message).toBe("incomplete: no transition of state 'Fault' is taken for overload=1, pressure=0 (other inputs 0); the state holds there (add 'otherwise' to say what happens)");
+        expect(f!.message).toBe("no transition of state 'Fault' is taken for overload=1, pressure=0 (other inputs 0); the state holds there (add 'otherwise' to say what happens)");
     });
 
     it('unreachable: on the state name, names the reset state', () => {
         const [f] = only(fs, 'unreachable');
         expect(f!.range).toEqual(state(m, 'Service').nameRange);
-        expect(f!.message).toBe("unreachable: no sequence of inputs leads from the reset state 'Idle' to state 'Service'");
+        expect(f!.message).toBe("no sequence of inputs leads from the reset state 'Idle' to state 'Service'");
         expect(f!.related?.[0]?.range).toEqual(state(m, 'Idle').nameRange);
     });
 
@@ -116,7 +116,7 @@ describe('effects decide overlaps', () => {
         expect(codes(fs)).toEqual(['overlap:T', 'unreachable:U']);
         const [o] = only(fs, 'overlap');
         expect(o!.witness).toEqual({ inputs: { a: 1, b: 1 } });
-        expect(o!.message).toBe("overlap: guards of 'when a' and 'when b' in state 'T' are both true for a=1, b=1, and the transitions differ (the first one in source order is taken)");
+        expect(o!.message).toBe("the guards of 'when a' and 'when b' in state 'T' are both true for a=1, b=1, and the transitions differ (the first one in source order is taken)");
     });
 });
 
@@ -135,7 +135,7 @@ describe('equivalent', () => {
         const [f] = only(fs, 'equivalent');
         expect(f!.range).toEqual(state(m, 'V').nameRange);
         expect(f!.related).toEqual([{ message: "equivalent state 'T'", range: state(m, 'T').nameRange }]);
-        expect(f!.message).toBe("equivalent: state 'V' cannot be told apart from state 'T' by any input sequence (same outputs, equivalent next states); the two can be merged");
+        expect(f!.message).toBe("state 'V' cannot be told apart from state 'T' by any input sequence (same outputs, equivalent next states); the two can be merged");
     });
 });
 
@@ -211,7 +211,7 @@ describe('reset state and reachability', () => {
     it('reset clear under explicit codes starts from the all-zeros state', () => {
         const fs = analyzeMachine(chain({ reset: 'clear', encoding: 'explicit' }));
         expect(codes(fs)).toEqual(['unreachable:A', 'unreachable:C']);
-        expect(only(fs, 'unreachable')[0]!.message).toBe("unreachable: no sequence of inputs leads from the reset state 'B' to state 'A'");
+        expect(only(fs, 'unreachable')[0]!.message).toBe("no sequence of inputs leads from the reset state 'B' to state 'A'");
     });
 
     it('reset clear under one-hot (no zero code) with recover starts from the recovery state; no-return carries a path', () => {
@@ -222,7 +222,7 @@ describe('reset state and reachability', () => {
         expect(b.severity).toBe('info');
         expect(b.range).toEqual(state(m, 'B').nameRange);
         expect(b.witness).toEqual({ path: ['C', 'A', 'B'] });
-        expect(b.message).toBe("no-return: once in state 'B' the machine can never get back to the reset state 'C' without a reset (reached by C → A → B)");
+        expect(b.message).toBe("once in state 'B' the machine can never get back to the reset state 'C' without a reset (reached by C → A → B)");
     });
 
     it('reset clear under one-hot without recover, and no reset at all, start from the first state', () => {
@@ -233,7 +233,7 @@ describe('reset state and reachability', () => {
         const [nr] = only(fs, 'no-reset');
         expect(nr!.range).toEqual(m.nameRange);
         expect(nr!.severity).toBe('warning');
-        expect(only(fs, 'unreachable')[0]!.message).toBe("unreachable: no sequence of inputs leads from the initial state 'A' to state 'C'");
+        expect(only(fs, 'unreachable')[0]!.message).toBe("no sequence of inputs leads from the initial state 'A' to state 'C'");
     });
 
     it('only transitions that can fire count: a shadowed or never-true one opens no path', () => {
@@ -258,7 +258,7 @@ describe('signals', () => {
         // `emit y = 0` assigns y (explicitly), so y is not unused.
         expect(codes(fs)).toEqual(['unused-input:spare_in']);
         expect(fs[0]!.range).toEqual(m.inputs[1]!.nameRange);
-        expect(fs[0]!.message).toBe("unused-input: input 'spare_in' is declared but no guard reads it");
+        expect(fs[0]!.message).toBe("input 'spare_in' is declared but no guard reads it");
     });
 });
 

@@ -80,5 +80,8 @@ export const EXPORT_COMMAND = 'detent.export';
 export const RUN_SCENARIO_COMMAND = 'detent.runScenario';
 export interface LensCommandArgs { uri: string; machine: string; scenario?: string }
 
-/** `Diagnostic.data` of Detent diagnostics: the finding's subject and witness (for hovers and quick fixes). */
-export interface DiagnosticData { state?: string; signal?: string; witness?: unknown }
+/**
+ * `Diagnostic.data` of Detent diagnostics: the finding's code, subject and witness (for hovers and
+ * quick fixes); `asBuilt` marks the lockup / reset-code / async-input findings of the idle-time phase.
+ */
+export interface DiagnosticData { code?: string; state?: string; signal?: string; witness?: unknown; asBuilt?: boolean }

@@ -51,6 +51,7 @@ h2 { font-size: 1.05em; font-weight: 600; margin: 10px 0 4px; }
 const SCRIPT = `
 (function () {
     const vscode = acquireVsCodeApi();
+    const ZOOM = 1.4;
     const root = document.getElementById('detent-diagram');
     const note = document.getElementById('detent-note');
     let current = { machine: undefined, state: undefined };
@@ -76,7 +77,13 @@ const SCRIPT = `
             if (m.svg) {
                 const doc = parser.parseFromString(m.svg, 'image/svg+xml');
                 const svg = doc.documentElement;
-                if (svg && svg.nodeName.toLowerCase() === 'svg') box.appendChild(document.importNode(svg, true));
+                if (svg && svg.nodeName.toLowerCase() === 'svg') {
+                    const node = document.importNode(svg, true);
+                    // Graphviz sizes in points; draw small machines a little larger, never wider than the panel.
+                    const pt = parseFloat(node.getAttribute('width') || '0');
+                    if (pt > 0) { node.style.width = Math.round(pt * 1.333 * ZOOM) + 'px'; node.style.height = 'auto'; }
+                    box.appendChild(node);
+                }
             } else if (m.error) {
                 const p = document.createElement('p'); p.className = 'note'; p.textContent = m.error; box.appendChild(p);
             }

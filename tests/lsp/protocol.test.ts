@@ -524,6 +524,33 @@ describe('active encoding from the settings', () => {
     });
 });
 
+describe('fails soft', () => {
+    it('answers every request while a file is typed from scratch', async () => {
+        const uri = freshUri('typing');
+        await session.open(uri, '');
+        const text = `${PRESS}\n${BARRIER}`;
+        for (let n = 7; n <= text.length; n += 23) {
+            const prefix = text.slice(0, n);
+            await session.change(uri, prefix);
+            const lines = prefix.split('\n');
+            const end = { line: lines.length - 1, character: lines[lines.length - 1]!.length };
+            const mid = { line: Math.floor(lines.length / 2), character: 6 };
+            // any answer (possibly empty) is fine; an error response or a dead server is not
+            await session.request('textDocument/hover', { textDocument: { uri }, position: mid });
+            await session.request('textDocument/codeLens', { textDocument: { uri } });
+            await session.request('textDocument/inlayHint', { textDocument: { uri }, range: { start: { line: 0, character: 0 }, end } });
+            await session.request('textDocument/completion', { textDocument: { uri }, position: end });
+            await session.request('textDocument/formatting', { textDocument: { uri }, options: { tabSize: 4, insertSpaces: true } });
+            await session.request('detent/status', { uri, position: mid });
+            await session.request('detent/diagram', { uri });
+        }
+        expect(session.process.exitCode).toBeNull();
+        expect(session.stderr.join('')).not.toMatch(/TypeError|ReferenceError/);
+        // fail-soft catches are logged: none may have been needed
+        expect(session.logs.filter((l) => /^detent: .* failed/.test(l))).toEqual([]);
+    });
+});
+
 describe('transports', () => {
     it('serves over --node-ipc (how the VS Code client starts it)', async () => {
         const ipc = await LspSession.start({ via: 'ipc' });

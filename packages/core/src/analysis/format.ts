@@ -35,9 +35,13 @@ export function formatGuard(g: Guard, machine: Machine): string {
     }
 }
 
-/** `'when G'`, the way a transition is named in messages. */
+/** Longest guard text quoted in a message; the range shows the rest. */
+const MAX_GUARD_TEXT = 60;
+
+/** `'when G'`, the way a transition is named in messages (long guards shortened with …). */
 export function transitionLabel(t: Transition, machine: Machine): string {
-    return `'when ${formatGuard(t.guard, machine)}'`;
+    const text = formatGuard(t.guard, machine);
+    return `'when ${text.length > MAX_GUARD_TEXT ? `${text.slice(0, MAX_GUARD_TEXT - 1)}…` : text}'`;
 }
 
 /**

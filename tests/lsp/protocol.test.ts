@@ -368,6 +368,10 @@ describe('editing features', () => {
         await expect(session.request('textDocument/rename', { textDocument: { uri }, position: wordRange(PRESS, 'StrokeB', 0).start, newName: 'begin' })).rejects.toThrow(/reserved/);
         await expect(session.request('textDocument/rename', { textDocument: { uri }, position: wordRange(PRESS, 'StrokeB', 0).start, newName: 'StrokeA' })).rejects.toThrow(/already declared/);
         await expect(session.request('textDocument/rename', { textDocument: { uri }, position: wordRange(PRESS, 'StrokeB', 0).start, newName: '9lives' })).rejects.toThrow(/identifier/);
+        // names are compared ignoring case (VHDL): `strokea` clashes with StrokeA; a case change of the name itself does not
+        await expect(session.request('textDocument/rename', { textDocument: { uri }, position: wordRange(PRESS, 'StrokeB', 0).start, newName: 'strokea' })).rejects.toThrow(/already declared/);
+        const recase = await session.request<WorkspaceEdit>('textDocument/rename', { textDocument: { uri }, position: wordRange(PRESS, 'StrokeB', 1).start, newName: 'STROKEB' });
+        expect(applyWorkspaceEdit(PRESS, uri, recase)).toBe(PRESS.replace(/\bStrokeB\b/g, 'STROKEB'));
         const signal = await session.request<WorkspaceEdit>('textDocument/rename', { textDocument: { uri }, position: wordRange(PRESS, 'hands', 0).start, newName: 'two_hands' });
         expect(applyWorkspaceEdit(PRESS, uri, signal)).toBe(PRESS.replace(/\bhands\b/g, 'two_hands'));
     });

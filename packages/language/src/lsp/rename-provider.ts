@@ -19,7 +19,7 @@ export function declaredNames(machine: Machine): Set<string> {
     const names = new Set<string>();
     for (const node of AstUtils.streamAllContents(machine)) {
         const name = (node as { name?: unknown }).name;
-        if (typeof name === 'string') names.add(name);
+        if (typeof name === 'string') names.add(name.toLowerCase());
     }
     return names;
 }
@@ -30,7 +30,8 @@ export function renameProblem(name: string, taken: ReadonlySet<string>): string 
     if (DETENT_KEYWORDS.has(name)) return `'${name}' is a Detent keyword`;
     const reserved = reservedBy(name);
     if (reserved.length > 0) return `'${name}' is reserved by ${reserved.join(', ')}: every export must compile`;
-    if (taken.has(name)) return `'${name}' is already declared in this machine`;
+    // one namespace per machine, compared ignoring case (VHDL; docs/decisions.md, Language)
+    if (taken.has(name.toLowerCase())) return `'${name}' is already declared in this machine (names are compared ignoring case)`;
     return undefined;
 }
 
@@ -45,11 +46,22 @@ export class DetentRenameProvider extends DefaultRenameProvider {
         const leaf = root.$cstNode ? findLeaf(root.$cstNode, offset) : undefined;
         const machine = leaf ? AstUtils.getContainerOfType(leaf, isMachine) : undefined;
         if (machine) {
-            const problem = renameProblem(params.newName, declaredNames(machine));
+            const taken = declaredNames(machine);
+            // renaming to the current name (or a case change of it) is not a clash with itself
+            const current = findDeclaredName(document, offset);
+            if (current !== undefined) taken.delete(current.toLowerCase());
+            const problem = renameProblem(params.newName, taken);
             if (problem) throw new ResponseError(ErrorCodes.InvalidParams, `Cannot rename: ${problem}.`);
         }
         return super.rename(document, params);
     }
+}
+
+/** The text of the name token at the offset (for a reference, the referenced name). */
+function findDeclaredName(document: LangiumDocument, offset: number): string | undefined {
+    const root = document.parseResult.value.$cstNode;
+    const token = root ? CstUtils.findLeafNodeAtOffset(root, offset) : undefined;
+    return token?.text;
 }
 
 function findLeaf(cst: CstNode, offset: number): AstNode | undefined {

@@ -428,7 +428,23 @@ describe('editing features', () => {
         const folds = await session.request<{ startLine: number }[]>('textDocument/foldingRange', { textDocument: { uri } });
         expect(folds.map((f) => f.startLine)).toEqual(expect.arrayContaining([positionOf(PRESS, 'state Idle').line]));
         const tokens = await session.request<{ data: number[] }>('textDocument/semanticTokens/full', { textDocument: { uri } });
-        expect(tokens.data.length).toBeGreaterThan(0);
+        // decode per the LSP 3.17 specification: relative (line, start), length, type index, modifiers
+        const legend = (session.capabilities.semanticTokensProvider as { legend: { tokenTypes: string[] } }).legend;
+        const decoded: { line: number; character: number; length: number; type: string }[] = [];
+        let line = 0;
+        let character = 0;
+        for (let i = 0; i < tokens.data.length; i += 5) {
+            const [dl, dc, length, type] = tokens.data.slice(i, i + 4) as [number, number, number, number];
+            line += dl;
+            character = dl === 0 ? character + dc : dc;
+            decoded.push({ line, character, length, type: legend.tokenTypes[type]! });
+        }
+        const at = (r: { start: { line: number; character: number } }) => decoded.find((t) => t.line === r.start.line && t.character === r.start.character)?.type;
+        expect(at(wordRange(PRESS, 'Idle', 1))).toBe('enumMember');
+        expect(at(wordRange(PRESS, 'StrokeA', 0))).toBe('enumMember');
+        expect(at(wordRange(PRESS, 'hands', 0))).toBe('parameter');
+        expect(at(wordRange(PRESS, 'hands', 1))).toBe('parameter');
+        expect(at(wordRange(PRESS, 'press', 1))).toBe('variable');
         const hints = await session.request<{ position: { line: number; character: number }; label: string }[]>('textDocument/inlayHint', {
             textDocument: { uri }, range: { start: { line: 0, character: 0 }, end: { line: 100, character: 0 } },
         });

@@ -3,8 +3,8 @@ import type { EncodingKind, FlipFlopKind, Machine } from '../../src/model/machin
 import { synthesize } from '../../src/synthesis/run.js';
 import type { SynthesisResult } from '../../src/synthesis/types.js';
 import { explicitSafety, symbolicSafety } from '../../src/asbuilt/safety.js';
-import { analyzeAsBuilt } from '../../src/asbuilt/index.js';
-import { recoveryReport } from '../../src/asbuilt/report.js';
+import { asBuiltFindings, recoveryReport } from '../../src/asbuilt/report.js';
+import type { SynthesisOptions } from '../../src/synthesis/synthesize.js';
 import { mulberry32, randomMachine } from '../support/random-machine.js';
 import { characteristicOracle, evalCover } from '../synthesis/oracle.js';
 
@@ -139,24 +139,28 @@ describe('as-built lock-up and recovery', () => {
     });
 });
 
+/** The same synthesis for the oracle and for the findings (no keystroke budgets, so no timing-dependent don't-care choices). */
+const SAME: SynthesisOptions = { quick: false, minimizeBudgetMs: 5000, deadline: undefined, budgetMs: 200 };
+
 describe('as-built findings', () => {
     it('reset-code exactly when the cleared code is unused and can stay unused (brute force)', () => {
         const rng = mulberry32(99);
         let errors = 0, fine = 0;
         for (let m = 0; m < 150; m++) {
             const machine: Machine = randomMachine(rng, { minStates: 2, maxStates: 6, maxBitInputs: 2, maxBuses: 0, resets: ['clear'], encodings: ['onehot', 'johnson', 'gray', 'onecold'], recoverRate: 0.1 }, `C${m}`);
-            const r = synthesize(machine);
+            const r = synthesize(machine, SAME);
             const oracle = bruteForce(r);
             const zeroUnused = !oracle.used.has(0);
             const want = zeroUnused && oracle.stuck(0);
-            const found = analyzeAsBuilt(machine).filter((f) => f.code === 'reset-code');
+            const all = asBuiltFindings(machine, { synthesis: SAME });
+            const found = all.filter((f) => f.code === 'reset-code');
             expect(found.length, machine.name).toBe(want ? 1 : 0);
             if (want) {
                 expect(found[0]!.severity).toBe('error');
                 expect(found[0]!.range).toEqual(machine.reset!.range);
                 errors++;
             } else fine++;
-            const lock = analyzeAsBuilt(machine).filter((f) => f.code === 'lockup');
+            const lock = all.filter((f) => f.code === 'lockup');
             expect(lock.length).toBe(oracle.lockup ? 1 : 0);
         }
         expect(errors).toBeGreaterThan(5);
@@ -170,14 +174,14 @@ describe('as-built findings', () => {
             const base = randomMachine(rng, { minStates: 2, maxStates: 6, maxBitInputs: 3, maxBuses: 0, encodings: ['binary', 'onehot'] }, `A${m}`);
             const machine: Machine = { ...base, inputs: base.inputs.map((i, k) => ({ ...i, async: k === 0 })) };
             if (machine.inputs.length === 0) continue;
-            const r = synthesize(machine, { budgetMs: 50 });
+            const r = synthesize(machine, SAME);
             // Oracle: read the literal fields of the cube bits directly (variable 0 is the first input, 1 bit wide).
             const flipflops = new Set<string>();
             for (const e of r.equations) {
                 if (e.role === 'output') continue;
                 if (e.cover.some((c) => (c[0]! & 3) !== 3)) flipflops.add(e.role === 'excitation' ? `q${e.stateBit}` : e.name);
             }
-            const found = analyzeAsBuilt(machine).filter((f) => f.code === 'async-input');
+            const found = asBuiltFindings(machine, { synthesis: SAME }).filter((f) => f.code === 'async-input');
             expect(found.length, machine.name).toBe(flipflops.size > 1 ? 1 : 0);
             if (found.length) {
                 expect(found[0]!.signal).toBe(machine.inputs[0]!.name);

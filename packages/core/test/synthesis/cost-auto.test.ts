@@ -171,6 +171,15 @@ describe('one-hot at 64 states', () => {
                 for (let i = 0; i < 64; i++) { const v = r.inputCount + i; if (((c[v >>> 4]! >>> ((v & 15) * 2)) & 3) !== 3) stateLits++; }
                 expect(stateLits).toBeLessThanOrEqual(flipflop === 'SR' ? 2 : 1);
             }
+            if (flipflop === 'SR') {
+                // S·R = 0 on every code, legal or not: each s_i product has q_i = 0 and each r_i product q_i = 1 (read from the cube bits).
+                for (let i = 0; i < 64; i++) {
+                    const v = r.inputCount + i;
+                    const field = (c: Uint32Array) => (c[v >>> 4]! >>> ((v & 15) * 2)) & 3;
+                    for (const c of r.equations.find((e) => e.name === `s${i}`)!.cover) expect(field(c)).toBe(1);
+                    for (const c of r.equations.find((e) => e.name === `r${i}`)!.cover) expect(field(c)).toBe(2);
+                }
+            }
             const t2 = performance.now();
             const a = symbolicSafety(r);
             expect(performance.now() - t2).toBeLessThan(4000); // target < 1 s, see bench-lockup.ts

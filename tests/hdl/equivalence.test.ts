@@ -12,7 +12,7 @@
  */
 import { describe, expect, it, beforeAll } from 'vitest';
 import { type Guard, type Machine, exportMachine, synthesize } from '@detent/core';
-import { type CorpusMachine, exampleMachines, randomCorpus, run, scratchDir, toolsAvailable, writeAll } from './support.js';
+import { type CorpusMachine, exampleMachines, randomCorpus, run, scratchDir, toolsAvailable } from './support.js';
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 

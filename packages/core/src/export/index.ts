@@ -5,6 +5,7 @@ import { exportVerilog } from './verilog.js';
 import { exportVhdl } from './vhdl.js';
 import { exportC } from './c.js';
 import { verilogTestbench, vhdlTestbench } from './testbench.js';
+import { exportDot } from './dot.js';
 import { defaultAssignment } from '../simulation/simulator.js';
 
 export * from './common.js';
@@ -13,6 +14,7 @@ export { exportVerilog } from './verilog.js';
 export { exportVhdl } from './vhdl.js';
 export { exportC, cField, cNames } from './c.js';
 export { verilogTestbench, vhdlTestbench } from './testbench.js';
+export { exportDot, guardSource } from './dot.js';
 
 /** Every file one export produces (the design, plus the testbench with `testbench`). */
 export function exportMachine(machine: Machine, language: ExportLanguage, options: ExportOptions): ExportFile[] {
@@ -26,6 +28,6 @@ export function exportMachine(machine: Machine, language: ExportLanguage, option
         case 'systemverilog': return bench(exportVerilog(machine, opts, 'systemverilog'));
         case 'vhdl': return bench(exportVhdl(machine, opts));
         case 'c': return exportC(machine, options);
-        default: throw new Error(`export to ${language}: not built yet`);
+        case 'dot': return [exportDot(machine, opts)];
     }
 }

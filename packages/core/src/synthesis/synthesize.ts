@@ -12,7 +12,7 @@
  */
 import type { EncodingKind, FlipFlopKind, Machine } from '../model/machine.js';
 import {
-    type Cube, ONE, ZERO, FREE, getVar, intersect, setVarInPlace, universe, withVar,
+    type Cube, ONE, ZERO, FREE, getVar, intersect, isUniverse, setVarInPlace, universe, withVar,
 } from '../boolean/cube.js';
 import {
     complement, coverContainsCover, coverDifference, coversIntersect, removeContained, tautology,
@@ -21,7 +21,8 @@ import { minimize } from '../boolean/minimize.js';
 import { type BehaviourTable, type BitValue, behaviourTable } from './behaviour.js';
 import { type StateAssignment, fixedAssignment } from './encoding.js';
 import { excitationInputs, excitationValue } from './excitation.js';
-import { networkCost } from './cost.js';
+import { compareCost, networkCost } from './cost.js';
+import { minimizeMulti } from '../boolean/multi-output.js';
 import type { Equation, SynthesisResult } from './types.js';
 
 export interface SynthesisOptions {
@@ -301,6 +302,7 @@ export function synthesizeWithAssignment(ctx: SynthesisContext, assignment: Stat
         });
     }
 
+    if (options.share && !structured) shareProducts(equations, onOf, dcOf, nvars, options, notes);
     if (flipflop === 'SR' && !structured) repairSetReset(equations, onOf, dcOf, nvars, width, options, notes);
 
     const outputFlipflops = bitsOut.filter((b) => b.registered).length;
@@ -309,6 +311,38 @@ export function synthesizeWithAssignment(ctx: SynthesisContext, assignment: Stat
     return {
         machine, assignment, flipflop, variables, inputCount, equations, cost, outputFlipflops, unusedCodes, notes,
     };
+}
+
+/**
+ * `share`: multiple-output minimization (boolean/multi-output.ts) over every non-constant
+ * equation, so that one AND term can serve several equations; kept only when it verifies and is
+ * not dearer, counted with shared products.
+ */
+function shareProducts(equations: Equation[], onOf: Map<string, Cube[]>, dcOf: Map<string, Cube[]>, nvars: number, options: CodesOptions, notes: string[]): void {
+    const idx = equations.map((_, i) => i).filter((i) => {
+        const e = equations[i]!;
+        return e.cover.length > 0 && !e.cover.some((c) => isUniverse(c, nvars)) && onOf.has(e.name);
+    });
+    if (idx.length < 2) return;
+    const functions = idx.map((i) => ({ on: onOf.get(equations[i]!.name)!, dc: dcOf.get(equations[i]!.name)! }));
+    let result;
+    try {
+        result = minimizeMulti(functions, nvars, { budgetMs: options.minimizeBudgetMs });
+    } catch {
+        return;
+    }
+    const before = networkCost(equations.map((e) => e.cover), nvars, 0, true);
+    const candidate = [...equations];
+    for (const [k, i] of idx.entries()) {
+        const cover = result.covers[k]!;
+        if (!verified(cover, functions[k]!.on, functions[k]!.dc, nvars)) return;
+        candidate[i] = { ...equations[i]!, cover, exact: false };
+    }
+    const after = networkCost(candidate.map((e) => e.cover), nvars, 0, true);
+    if (compareCost(after, before) < 0) {
+        equations.splice(0, equations.length, ...candidate);
+        notes.push(`shared products: ${before.products} → ${after.products} AND/OR terms`);
+    }
 }
 
 /** The minimizer's cover must contain the ON-set and stay inside ON ∪ DC (a guard against minimizer bugs). */

@@ -77,6 +77,12 @@ describe('declarations', () => {
         ]);
     });
 
+    test('modifier and width in either order', () => {
+        const m = only('machine M { input [3] async code_in; output [2] registered count; state Only {} }');
+        expect(m.inputs[0]).toMatchObject({ width: 3, isBus: true, async: true });
+        expect(m.outputs[0]).toMatchObject({ width: 2, isBus: true, registered: true });
+    });
+
     test('a one-bit bus `[1]` is still a bus', () => {
         const m = only('machine M { input [1] x; state A { when x[0] -> A; otherwise stay; } }');
         expect(m.inputs[0]).toMatchObject({ width: 1, isBus: true });

@@ -226,6 +226,19 @@ async function session({ entry, vsix, examples, trust, checks }) {
                 copyFileSync(editorShot, join(root, 'docs', 'images', 'editor.png'));
             }
 
+            await checks.run('trusted: the diagram follows edits (a typed state appears, and goes with its line)', async () => {
+                if (!frame) throw new Error('no diagram drawing (see the previous check)');
+                const last = states[states.length - 1];
+                await tokenOnLine(page, `state ${last}`, last).click();
+                await page.keyboard.press('End');
+                await page.keyboard.insertText('\n    state Spare { otherwise stay; }');
+                const has = async () => (await frame.$$eval('#detent-diagram g.node > title', (ts) => ts.map((t) => t.textContent))).includes('Spare');
+                await waitFor(has, 20_000, 'state Spare in the diagram');
+                // The cursor is still on the inserted line: delete it again.
+                await runCommand(page, 'Delete Line');
+                await waitFor(async () => !(await has()), 20_000, 'state Spare gone after deleting its line');
+            }, 60_000);
+
             await checks.run('trusted: clicking a state in the diagram reveals it in the source', async () => {
                 if (!frame) throw new Error('no diagram drawing (see the previous check)');
                 const s = states[0];

@@ -6,6 +6,7 @@
  * outside every prime — then "row covered" means "one prime contains it". They are generated
  * lazily (see exactCover), so wide functions with few primes never enumerate minterms.
  */
+import { cpuNow } from './clock.js';
 import { type Cube, ONE, ZERO, isUniverse, setVarInPlace, universe, wordMask, wordsFor } from './cube.js';
 import { cubeLiteralCount } from './espresso/expand.js';
 import { cubeCofactor, literalCofactor, mostBinate, mostFrequent, phaseCounts, singleCubeContainment } from './espresso/unate.js';
@@ -71,7 +72,7 @@ export function exactCover(
             missing++;
         }
         if (missing === 0) return { cover: chosen, proven: sol.complete };
-        if (!sol.complete || Date.now() > limits.deadline) return { cover: null, proven: false };
+        if (!sol.complete || cpuNow() > limits.deadline) return { cover: null, proven: false };
     }
 }
 

@@ -9,6 +9,7 @@
  * rows (pairwise without common column: each needs its own column), and branches on the
  * columns of a shortest row, excluding earlier siblings' columns.
  */
+import { cpuNow } from './clock.js';
 
 export interface CoverProblem {
     /** For every row, the columns that cover it. */
@@ -48,7 +49,6 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
     const localRow = new Int32Array(p.rows.length).fill(-1);
     let best: number[] | null = null;
     let bestCost = upperBound;
-    let nodes = 0;
 
     const build = (rows: number[], cols: number[]): Table => {
         cols.forEach((c, i) => { localCol[c] = i; });
@@ -83,8 +83,11 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
      * Applies the reductions until nothing changes. Returns the table left (possibly empty),
      * or null when a row has no column left. Chosen columns go to `chosen`, their cost to acc.
      */
-    const reduceTable = (rows: number[], cols: number[], chosen: number[], acc: { cost: number }): Table | null => {
+    const reduceTable = (rows: number[], cols: number[], chosen: number[], acc: { cost: number }, depth: number): Table | null => {
+        // Dominance checks are quadratic; past this many word operations they are skipped.
+        const effort = 8_000_000;
         for (;;) {
+            if (cpuNow() > deadline) throw new OutOfTime();
             const t = build(rows, cols);
             const nr = t.rows.length;
             const nc = t.cols.length;
@@ -119,7 +122,7 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
             // Row dominance: a row containing another row's columns is implied by it.
             const order = Array.from({ length: nr }, (_, i) => i).sort((a, b) => t.rowCount[a]! - t.rowCount[b]! || a - b);
             const dropRow = new Uint8Array(nr);
-            if (nr * nr * t.rowBits[0]!.length <= 8_000_000) {
+            if (nr * nr * t.rowBits[0]!.length <= effort) {
                 for (let x = 0; x < nr; x++) {
                     const a = order[x]!;
                     if (dropRow[a]) continue;
@@ -133,7 +136,7 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
             }
             // Column dominance: a column whose rows lie within a no-dearer column's is not needed.
             const dropCol = new Uint8Array(nc);
-            if (nc * nc * t.colBits[0]!.length <= 8_000_000) {
+            if (nc * nc * t.colBits[0]!.length <= effort) {
                 const byCount = Array.from({ length: nc }, (_, j) => j).sort((a, b) => t.colCount[b]! - t.colCount[a]! || a - b);
                 for (let a = 0; a < nc; a++) {
                     if (t.colCount[a] === 0) { dropCol[a] = 1; changed = true; continue; }
@@ -182,10 +185,10 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
         return bound;
     };
 
-    const search = (rows: number[], cols: number[], chosen: number[], cost: number): void => {
-        if ((++nodes & 7) === 0 && Date.now() > deadline) throw new OutOfTime();
+    const search = (rows: number[], cols: number[], chosen: number[], cost: number, depth: number): void => {
+        if (cpuNow() > deadline) throw new OutOfTime();
         const acc = { cost };
-        const t = reduceTable(rows, cols, chosen, acc);
+        const t = reduceTable(rows, cols, chosen, acc, depth);
         if (t === null) return;
         if (acc.cost >= bestCost - EPS) return;
         if (t.rows.length === 0) {
@@ -213,7 +216,7 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
             const childCols = t.cols.filter((_, k) => k !== j && !excluded[k]);
             const base = chosen.length;
             chosen.push(c);
-            search(childRows, childCols, chosen, acc.cost + p.cost[c]!);
+            search(childRows, childCols, chosen, acc.cost + p.cost[c]!, depth + 1);
             chosen.length = base;
             excluded[j] = 1;
         }
@@ -221,7 +224,7 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
 
     const chosenRoot: number[] = [];
     try {
-        search(p.rows.map((_, i) => i), Array.from({ length: nCols }, (_, j) => j), chosenRoot, 0);
+        search(p.rows.map((_, i) => i), Array.from({ length: nCols }, (_, j) => j), chosenRoot, 0, 0);
         return { columns: best, cost: bestCost, complete: true };
     } catch (e) {
         if (e instanceof OutOfTime) return { columns: best, cost: bestCost, complete: false };

@@ -6,6 +6,7 @@
  * (exact.ts) seeded with the heuristic cover as upper bound; when that search completes, the
  * cover is proven minimal: fewest products, then fewest literals.
  */
+import { cpuNow } from './clock.js';
 import { type Cube, isEmpty, wordsFor } from './cube.js';
 import { cheaper, coverCost, espressoHeuristic } from './espresso/loop.js';
 import { singleCubeContainment } from './espresso/unate.js';
@@ -38,7 +39,7 @@ const DEFAULT_BUDGET_MS = 2000;
 
 /** Minimizes f with ON-set `on` and don't-care set `dc` (both covers over `nvars` variables). */
 export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number, options: MinimizeOptions = {}): MinimizeResult {
-    const start = Date.now();
+    const start = cpuNow();
     const method = options.method ?? 'auto';
     const budget = options.budgetMs ?? DEFAULT_BUDGET_MS;
     const deadline = start + budget;
@@ -49,7 +50,7 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
     // The heuristic gets most of the budget only when exact work is not wanted.
     const heuristicDeadline = method === 'heuristic' ? deadline : start + Math.max(1, budget * 0.5);
     const h = espressoHeuristic(onCubes, dcCubes, nvars, { deadline: heuristicDeadline });
-    const heuristicMs = Date.now() - start;
+    const heuristicMs = cpuNow() - start;
     let cover = h.cover;
     if (method === 'heuristic') return { cover, exact: false };
     const hc = coverCost(cover, nvars);
@@ -61,7 +62,7 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
         maxRows: big ? 10_000_000 : options.maxRows ?? 20000,
         // In 'auto' the exact search gets time in proportion to the heuristic's (it is an
         // improvement step); 'exact' may use the whole budget.
-        deadline: big ? deadline : Math.min(deadline, Date.now() + Math.max(options.exactMinMs ?? 30, (options.exactFactor ?? 1) * heuristicMs)),
+        deadline: big ? deadline : Math.min(deadline, cpuNow() + Math.max(options.exactMinMs ?? 30, (options.exactFactor ?? 1) * heuristicMs)),
     });
     if (outcome === null) return { cover, exact: false };
     if (outcome.cover && cheaper(coverCost(outcome.cover, nvars), hc)) cover = outcome.cover;

@@ -9,6 +9,7 @@
  * ON-set is covered; its rows are ON minterms added lazily, as in exact.ts. The baseline is the
  * upper bound, so sharing never costs more distinct products than minimizing apart.
  */
+import { cpuNow } from './clock.js';
 import { type Cube, isEmpty, wordsFor } from './cube.js';
 import { cubeLiteralCount } from './espresso/expand.js';
 import { irredundant } from './espresso/irredundant.js';
@@ -52,7 +53,7 @@ export interface MultiOptions extends MinimizeOptions {
 const key = (c: Cube): string => Array.from(c).join(',');
 
 export function minimizeMulti(functions: readonly MultiFunction[], nvars: number, options: MultiOptions = {}): MultiResult {
-    const start = Date.now();
+    const start = cpuNow();
     const budget = options.budgetMs ?? 2000;
     const words = wordsFor(nvars);
     const alone = functions.map((f) => minimize(f.on, f.dc, nvars, { ...options, budgetMs: Math.max(1, budget / (2 * Math.max(1, functions.length))) }));
@@ -86,7 +87,7 @@ export function minimizeMulti(functions: readonly MultiFunction[], nvars: number
     for (let j = 0; j < baselineCount; j++) upper += cost[j]!;
     let chosen: number[] = Array.from({ length: baselineCount }, (_, j) => j);
 
-    if (functions.length > 1 && Date.now() < start + budget) {
+    if (functions.length > 1 && cpuNow() < start + budget) {
         const rows: number[][] = [];
         const rowKeys = new Set<string>();
         const addRow = (f: number, m: Cube): void => {
@@ -102,7 +103,7 @@ export function minimizeMulti(functions: readonly MultiFunction[], nvars: number
             if (cols.length > 0 && !rowKeys.has(k)) { rowKeys.add(k); rows.push(cols); }
         };
         functions.forEach((fn, f) => fn.on.forEach((c) => { if (!isEmpty(c, nvars)) addRow(f, firstMinterm(c, nvars)); }));
-        for (let round = 0; round < 50 && Date.now() < start + budget; round++) {
+        for (let round = 0; round < 50 && cpuNow() < start + budget; round++) {
             const sol = solveCover({ rows, columns: cands.length, cost }, upper, start + budget);
             if (sol.columns === null) break;
             let missing = 0;

@@ -4,6 +4,7 @@
  * of P(f0) and P(f1) (which include every prime of f0·f1). A unate cover's primes are its
  * cubes after single-cube containment.
  */
+import { cpuNow } from './clock.js';
 import { type Cube, wordMask, wordsFor } from './cube.js';
 import { literalCofactor, mostBinate, phaseCounts, singleCubeContainment } from './espresso/unate.js';
 
@@ -25,7 +26,7 @@ export function allPrimes(f: readonly Cube[], nvars: number, limit: number, dead
 interface PrimeBudget { readonly limit: number; readonly deadline: number; calls: number }
 
 function primesOf(f: Cube[], nvars: number, masks: Uint32Array, b: PrimeBudget): Cube[] {
-    if ((++b.calls & 63) === 0 && Date.now() > b.deadline) throw new TooManyPrimes();
+    if ((++b.calls & 63) === 0 && cpuNow() > b.deadline) throw new TooManyPrimes();
     const words = masks.length;
     if (f.length <= 1) return f;
     for (const c of f) {
@@ -40,7 +41,7 @@ function primesOf(f: Cube[], nvars: number, masks: Uint32Array, b: PrimeBudget):
     const p1 = primesOf(singleCubeContainment(literalCofactor(f, v, 1, nvars), words), nvars, masks, b);
     // The merge costs about |P0|·|P1| intersections, each checked against the primes kept.
     if (p0.length * p1.length * (p0.length + p1.length) > 40_000_000) throw new TooManyPrimes();
-    if (Date.now() > b.deadline) throw new TooManyPrimes();
+    if (cpuNow() > b.deadline) throw new TooManyPrimes();
     const w = v >>> 4;
     const shift = (v & 15) << 1;
     const low = 0x55555555;
@@ -79,7 +80,7 @@ function containmentFree(f: Cube[], words: number, b: PrimeBudget): Cube[] {
     size.sort();
     const kept: Cube[] = [];
     for (let k = 0; k < size.length; k++) {
-        if ((k & 255) === 0 && Date.now() > b.deadline) throw new TooManyPrimes();
+        if ((k & 255) === 0 && cpuNow() > b.deadline) throw new TooManyPrimes();
         const c = f[size[k]! % 4194304]!;
         let inside = false;
         for (const q of kept) {

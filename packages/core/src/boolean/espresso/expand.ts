@@ -37,11 +37,12 @@ export function expand(f: readonly Cube[], nvars: number, target: ExpandTarget):
     const covered = new Uint8Array(f.length);
     const primes: Cube[] = [];
     const rowMasks = target.off ? new Uint32Array(target.off.length * words) : null;
+    const scratch = target.off ? { active: new Int32Array(target.off.length), hits: new Int32Array(target.off.length) } : null;
     for (const i of order) {
         if (covered[i]) continue;
         covered[i] = 1;
         const p = target.off
-            ? expandAgainstOff(i, f, covered, target.off, rowMasks!, masks, nvars)
+            ? expandAgainstOff(i, f, covered, target.off, rowMasks!, scratch!, masks, nvars)
             : expandByContainment(i, f, covered, target.care, masks, nvars);
         for (let j = 0; j < f.length; j++) {
             if (covered[j]) continue;
@@ -78,7 +79,7 @@ function candidatesByDistance(i: number, f: readonly Cube[], covered: Uint8Array
 
 function expandAgainstOff(
     i: number, f: readonly Cube[], covered: Uint8Array, off: readonly Cube[], rowMask: Uint32Array,
-    masks: Uint32Array, nvars: number,
+    scratch: { readonly active: Int32Array; readonly hits: Int32Array }, masks: Uint32Array, nvars: number,
 ): Cube {
     void nvars;
     const words = masks.length;
@@ -88,7 +89,7 @@ function expandAgainstOff(
     const lowered = new Uint32Array(words);
     for (let w = 0; w < words; w++) free[w] = (c[w]! ^ (c[w]! >>> 1)) & masks[w]!;
     const nRows = off.length;
-    let active = new Int32Array(nRows);
+    const active = scratch.active;
     let nActive = 0;
     for (let r = 0; r < nRows; r++) {
         const o = off[r]!;
@@ -206,7 +207,7 @@ function expandAgainstOff(
     for (let w = 0; w < words; w++) cur[w] = (cur[w]! | free[w]! | (free[w]! << 1)) >>> 0;
 
     // Make it prime: drop any kept variable whose every OFF row is also separated by another one.
-    const hits = new Int32Array(nRows);
+    const hits = scratch.hits;
     for (let r = 0; r < nRows; r++) {
         let n = 0;
         for (let w = 0; w < words; w++) n += popcount32(rowMask[r * words + w]! & lowered[w]!);
@@ -225,7 +226,6 @@ function expandAgainstOff(
             cur[w] = (cur[w]! | b | (b << 1)) >>> 0;
         }
     }
-    active = new Int32Array(0);
     return cur;
 }
 

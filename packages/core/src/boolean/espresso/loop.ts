@@ -5,11 +5,12 @@
  *
  * Cost is (products, literals), compared in that order.
  */
-import { type Cube, wordMask, wordsFor } from '../cube.js';
+import { cpuNow } from '../clock.js';
+import { type Cube, wordsFor } from '../cube.js';
 import { type ExpandTarget, cubeLiteralCount, expand } from './expand.js';
 import { irredundant } from './irredundant.js';
 import { reduce, reduceCube } from './reduce.js';
-import { complementWithin, coverHasCube, popcount32, singleCubeContainment } from './unate.js';
+import { complementWithin, coverHasCube, masksFor, popcount32, singleCubeContainment } from './unate.js';
 
 export interface CoverCost { readonly products: number; readonly literals: number }
 
@@ -40,7 +41,7 @@ export function espressoHeuristic(on: readonly Cube[], dc: readonly Cube[], nvar
     let f = singleCubeContainment(on, words);
     const care = singleCubeContainment([...f, ...dc], words);
     const maxOff = options.maxOffCubes ?? Math.max(2000, 20 * care.length);
-    const off = complementWithin(care, nvars, maxOff, Math.min(options.deadline, Date.now() + 200));
+    const off = complementWithin(care, nvars, maxOff, Math.min(options.deadline, cpuNow() + 200));
     const target: ExpandTarget = { off, care };
     if (f.length === 0) return { cover: [], target };
     f = expand(f, nvars, target);
@@ -61,14 +62,14 @@ function improve(f: Cube[], dc: readonly Cube[], nvars: number, target: ExpandTa
     const options = { deadline };
     let cost = coverCost(f, nvars);
     for (;;) {
-        while (Date.now() < options.deadline) {
+        while (cpuNow() < options.deadline) {
             const g = irredundant(expand(reduce(f, dc, nvars), nvars, target), dc, nvars);
             const gc = coverCost(g, nvars);
             if (!cheaper(gc, cost)) break;
             f = g;
             cost = gc;
         }
-        if (Date.now() >= options.deadline) break;
+        if (cpuNow() >= options.deadline) break;
         const g = lastGasp(f, dc, nvars, target);
         const gc = coverCost(g, nvars);
         if (!cheaper(gc, cost)) break;
@@ -85,6 +86,7 @@ function improve(f: Cube[], dc: readonly Cube[], nvars: number, target: ExpandTa
 export function essentialPrimes(f: readonly Cube[], dc: readonly Cube[], nvars: number): Cube[] {
     const words = wordsFor(nvars);
     const all = [...f, ...dc];
+    const masks = masksFor(nvars);
     const out: Cube[] = [];
     const h: Cube[] = [];
     for (let i = 0; i < f.length; i++) {
@@ -96,11 +98,9 @@ export function essentialPrimes(f: readonly Cube[], dc: readonly Cube[], nvars: 
             let conflicts = 0;
             let cw = 0;
             let cbits = 0;
-            const r = new Uint32Array(words);
-            for (let w = 0; w < words; w++) {
+            for (let w = 0; w < words && conflicts < 2; w++) {
                 const x = (p[w]! & q[w]!) >>> 0;
-                r[w] = x;
-                const empty = ~(x | (x >>> 1)) & 0x55555555 & wordMask(nvars, w);
+                const empty = ~(x | (x >>> 1)) & 0x55555555 & masks[w]!;
                 if (empty !== 0) {
                     conflicts += popcount32(empty);
                     cw = w;
@@ -108,6 +108,8 @@ export function essentialPrimes(f: readonly Cube[], dc: readonly Cube[], nvars: 
                 }
             }
             if (conflicts > 1) continue;
+            const r = new Uint32Array(words);
+            for (let w = 0; w < words; w++) r[w] = p[w]! & q[w]!;
             if (conflicts === 1) r[cw] = (r[cw]! | cbits | (cbits << 1)) >>> 0;
             h.push(r);
         }

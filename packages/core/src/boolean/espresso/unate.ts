@@ -5,6 +5,7 @@
  * Cubes follow cube.ts (2 bits per variable, 01 = 0, 10 = 1, 11 = free). Functions never
  * mutate their arguments.
  */
+import { cpuNow } from '../clock.js';
 import { type Cube, ONE, ZERO, universe, wordMask, wordsFor } from '../cube.js';
 
 const LOW = 0x55555555;
@@ -297,7 +298,7 @@ export function complementWithin(f: readonly Cube[], nvars: number, maxCubes: nu
 interface ComplementBudget { left: number; readonly maxCubes: number; readonly deadline: number; calls: number }
 
 function compl(f: readonly Cube[], nvars: number, masks: Uint32Array, b: ComplementBudget): Cube[] {
-    if ((++b.calls & 255) === 0 && Date.now() > b.deadline) throw new BudgetExceeded();
+    if ((++b.calls & 255) === 0 && cpuNow() > b.deadline) throw new BudgetExceeded();
     if (f.length === 0) return [universe(nvars)];
     for (const c of f) if (isUniverseCube(c, masks)) return [];
     if (f.length === 1) {

@@ -1,6 +1,6 @@
 /**
  * Differential test: every export (Verilog-2005, SystemVerilog-2017, VHDL-2008, each behavioral
- * and structural; C99) of 200 seeded random machines is driven with the same random stimulus as
+ * and structural; C99) of every example and 200 seeded random machines is driven with the same random stimulus as
  * the core simulator (240 cycles from a reset, reset also asserted mid-run) in the real tools —
  * Icarus Verilog, GHDL, gcc — and state (through the `state` port / the C state) and every output
  * are compared after every clock edge. Oracle for the simulator itself: the independent
@@ -10,7 +10,7 @@ import { describe, expect, it, beforeAll } from 'vitest';
 import { join } from 'node:path';
 import { exportMachine, type ExportLanguage, type ExportStyle } from '@detent/core';
 import {
-    type CorpusMachine, type StimulusCycle, cHarness, cMain, compareDumps, expectedDump, mulberry32, parseDump, randomCorpus,
+    type CorpusMachine, type StimulusCycle, cHarness, exampleMachines, cMain, compareDumps, expectedDump, mulberry32, parseDump, randomCorpus,
     icarusMessages, randomStimulus, run, scratchDir, toolsAvailable, verilogDumpBench, vhdlDumpBench, vhdlTop, writeAll,
 } from './support.js';
 
@@ -25,7 +25,7 @@ describe.runIf(toolsAvailable(TOOLS))('exports behave like the core simulator, c
     let totalCycles = 0;
 
     beforeAll(() => {
-        corpus = randomCorpus(COUNT, 424242);
+        corpus = [...exampleMachines().map((e) => ({ machine: e.machine, synth: e.synth })), ...randomCorpus(COUNT, 424242)];
         const rng = mulberry32(99);
         for (const c of corpus) {
             const s = randomStimulus(c.machine, rng, CYCLES);

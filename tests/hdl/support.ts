@@ -11,7 +11,7 @@ import { parseDetent } from '@detent/language';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { EncodingKind, FlipFlopKind, Machine, SynthesisResult } from '@detent/core';
-import { clearResetState, synthesize, createSimulator } from '@detent/core';
+import { cField, clearResetState, synthesize, createSimulator } from '@detent/core';
 import { int, mulberry32, randomMachine, type Rng } from '../../packages/core/test/support/random-machine.js';
 
 export const IN_CI = process.env.CI === 'true';
@@ -265,7 +265,7 @@ export function vhdlTop(ids: readonly string[], name = 'tb_all'): { name: string
 /** A C harness calling <m>_reset/_step/_outputs_of with the stimulus, printing the same dump. */
 export function cHarness(machine: Machine, width: number, stimulus: readonly StimulusCycle[]): { name: string; text: string } {
     const id = machine.name;
-    const field = (n: string) => n; // corpus names are never C keywords
+    const field = cField; // the export's member naming (C keywords get a trailing _)
     const L = ['#include <stdio.h>', `#include "${id}.h"`, 'void pb(unsigned long v, int w);', `void run_${id}(void);`, ''];
     const params = ['int r', ...machine.inputs.map((_, j) => `unsigned x${j}`)];
     L.push(`static void cyc_${id}(${id}_state *s, int *k, ${params.join(', ')})`, '{', `    ${id}_inputs in;`, `    ${id}_outputs out;`);

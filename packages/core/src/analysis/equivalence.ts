@@ -4,7 +4,7 @@
  * Observable behaviour of a state for one input: the output vector (Moore overlaid with Mealy)
  * and the class of the next state. Each state's regions (space.ts) partition the input space,
  * so two states behave alike for the current partition exactly when every pair of
- * intersecting regions agrees on both — a cube-intersection test, no enumeration. To avoid
+ * intersecting regions agrees on both — a containment (tautology) test, no enumeration. To avoid
  * comparing every pair, states are first bucketed by a fingerprint: their behaviour at a fixed
  * set of sample inputs (all inputs when there are at most 64), which equal behaviours share.
  *

@@ -11,7 +11,7 @@
 import type { Machine, Emit } from '../model/machine.js';
 import type { Witness } from '../model/finding.js';
 import { type Cube, FREE, ONE, ZERO, cubeOf, getVar, intersect, intersects, isUniverse, someMinterm, universe } from '../boolean/cube.js';
-import { type Cover, coverCofactor, coverContainsCover, coverContainsCube, coverUnion, tautology } from '../boolean/cover.js';
+import { type Cover, coverCofactor, coverContainsCover, coverContainsCube, tautology } from '../boolean/cover.js';
 import { type GuardContext, guardContext, guardCover } from '../boolean/guard.js';
 
 export type RegionKind = 'when' | 'otherwise' | 'hold' | 'dontcare';
@@ -87,7 +87,8 @@ export function buildSpace(machine: Machine): MachineSpace {
             const fire = g.length > 0 && !coverContainsCover(covered, g, n);
             fires.push(fire);
             if (fire) regions.push({ kind: 'when', transition: i, on: g, off: covered, target: t.target, outputs: intern(outputVector(machine, state.emits, t.emits)) });
-            if (g.length > 0) covered = coverUnion(covered, g);
+            // Plain concatenation: single-cube containment would cost more than the redundant cubes do.
+            if (g.length > 0) covered = covered.length === 0 ? g : [...covered, ...g];
         });
         const hasRest = !tautology(covered, n);
         let dontcare = false;

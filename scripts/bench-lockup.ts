@@ -10,6 +10,7 @@ import { NO_RANGE } from '../packages/core/src/model/machine.js';
 import { synthesize } from '../packages/core/src/synthesis/run.js';
 import { explicitSafety, symbolicSafety } from '../packages/core/src/asbuilt/safety.js';
 import { recoveryReport } from '../packages/core/src/asbuilt/report.js';
+import { analyzeAsBuilt } from '../packages/core/src/asbuilt/index.js';
 
 const R: SourceRange = NO_RANGE;
 const input = (i: number): Guard => ({ kind: 'input', input: i, range: R });
@@ -83,6 +84,10 @@ if (isMain) {
             const [a, tl] = time(() => symbolicSafety(r));
             console.log(`${String(n).padStart(10)}  ${ff.padEnd(2)}  ${ts.toFixed(1).padStart(7)}  ${tl.toFixed(1).padStart(6)}  ${a.method.padEnd(8)}  ${String(a.lockup).padEnd(7)}  ${String(a.worstLatency ?? '-').padStart(13)}`);
         }
+    }
+    for (const n of [16, 32, 64]) {
+        const [findings, tf] = time(() => analyzeAsBuilt(indexingTable(n, 'T')));
+        console.log(`analyzeAsBuilt (editor keystroke path), ${n} one-hot T: ${tf.toFixed(1)} ms → ${findings.map((f) => f.code).join(', ') || 'no findings'}`);
     }
     const [report, t] = time(() => recoveryReport(indexingTable(64, 'D', true)));
     console.log(`recovery report (2 syntheses + analysis), 64 one-hot D with recover: ${t.toFixed(1)} ms; cost delta of recover ${JSON.stringify(report.recoverCostDelta)}`);

@@ -512,8 +512,22 @@ describe('diagram and export requests', () => {
         expect(m.states[1]!.range).toEqual(wordRange(PRESS, 'StrokeA', 1));
     });
 
-    // Enabled once core's DOT exporter lands (the diagram's DOT must come from core, not from the server).
-    it.todo('diagram DOT comes from the core DOT exporter and names every state');
+    it('diagram DOT (core exporter) lays out in Graphviz with every state and transition', async () => {
+        const uri = freshUri('diagram-dot');
+        await session.open(uri, PRESS);
+        const d = await session.request<{ machines: { dot: string }[] }>('detent/diagram', { uri });
+        const dot = d.machines[0]!.dot;
+        expect(dot).toMatch(/digraph/);
+        // outside oracle: Graphviz itself (the WASM build the extension also uses) must accept the DOT
+        const { Graphviz } = await import('@hpcc-js/wasm-graphviz');
+        const graphviz = await Graphviz.load();
+        const svg = graphviz.dot(dot);
+        for (const s of ['Idle', 'StrokeA', 'StrokeB']) expect(svg).toContain(`<title>${s}</title>`);
+        // the transitions of PRESS, read off the text above (`->` is escaped in SVG titles)
+        for (const [from, to] of [['Idle', 'StrokeA'], ['Idle', 'StrokeB'], ['StrokeA', 'Idle'], ['StrokeB', 'Idle']]) {
+            expect(svg).toContain(`<title>${from}&#45;&gt;${to}</title>`);
+        }
+    });
 });
 
 describe('active encoding from the settings', () => {

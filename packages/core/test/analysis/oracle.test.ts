@@ -245,6 +245,8 @@ const families: { name: string; runs: number; options: RandomMachineOptions; dup
     { name: 'few inputs and outputs, many states (equivalence)', runs: 120, options: { minStates: 3, maxStates: 10, maxBitInputs: 2, maxBuses: 0, maxOutputs: 1, disjointPlainGuards: false }, duplicate: true },
     { name: 'seven or eight input bits (sampled fingerprints), duplicated states', runs: 120, options: { minBitInputs: 4, maxBitInputs: 5, minBuses: 1, maxBuses: 1, minBusWidth: 3, maxBusWidth: 3, maxStates: 6, disjointPlainGuards: false, maxOutputs: 2 }, duplicate: true },
     { name: 'no inputs at all, constant guards', runs: 40, options: { maxBitInputs: 0, maxBuses: 0, maxStates: 5 } },
+    // Beyond the 8-bit budget, a few machines with a 16-bit bus (2^16..2^17 valuations each) check that wide buses are exact too.
+    { name: 'a 16-bit bus (few machines)', runs: 8, options: { maxBitInputs: 1, minBuses: 1, maxBuses: 1, minBusWidth: 16, maxBusWidth: 16, maxStates: 3, disjointPlainGuards: false, maxOutputs: 1 } },
     { name: 'reset clear under every encoding, often with recover (start-state rules)', runs: 100, options: { resets: ['clear'], encodings: ['auto', 'binary', 'gray', 'johnson', 'onehot', 'onecold', 'explicit'], recoverRate: 0.5, minStates: 1, maxStates: 6, maxOutputs: 2 } },
 ];
 

@@ -66,7 +66,7 @@ const flag = (name: string, fallback: number) => { const i = args.indexOf(name);
 /** Runs of the design analyses (fast, this script's main figure). */
 const runs = flag('--runs', 15);
 /** Runs of the full check paths, which include synthesis-based analyses of other modules. */
-const fullRuns = flag('--full-runs', 3);
+const fullRuns = flag('--full-runs', 1);
 const asJson = args.includes('--json');
 
 function median(xs: number[]): number {

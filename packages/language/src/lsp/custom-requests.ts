@@ -64,10 +64,12 @@ export function registerDetentRequests(connection: Connection, shared: LangiumSh
 
     handle<DiagramParams, DiagramResult>(DIAGRAM_REQUEST, { machines: [] }, (document) => ({
         machines: model.machines(document).filter((m) => m.machine.name).map((entry) => {
-            const codes = model.synthesis(document, entry).result?.assignment.codes;
+            // a view, like hovers: the active encoding (exports follow the file's declaration)
+            const active = model.synthesis(document, entry).result;
+            const codes = active?.assignment.codes;
             return {
                 name: entry.machine.name,
-                dot: entry.blocked ? '' : diagramOf(entry.machine, contextOf(document), declaredSynthesis(document, entry)),
+                dot: entry.blocked ? '' : diagramOf(entry.machine, contextOf(document), active),
                 states: entry.machine.states.map((s, i) => ({ name: s.name, range: s.nameRange, code: codes?.[i] ?? '' })),
                 range: entry.machine.range,
             };

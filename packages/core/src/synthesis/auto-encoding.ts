@@ -27,6 +27,11 @@ interface Candidate {
     readonly result: SynthesisResult;
 }
 
+/** Largest number of canonical assignments tried exhaustively (8 states on 3 bits: 840 with T/JK/SR, 6720 with D). */
+const EXHAUSTIVE_MAX = 1500;
+/** Moves of the swap search. */
+const MAX_MOVES = 600;
+
 const now = (): number => (typeof performance !== 'undefined' ? performance.now() : Date.now());
 
 function costText(c: Cost): string {
@@ -91,12 +96,14 @@ export function autoSynthesize(machine: Machine, flipflop: FlipFlopKind, options
 
     const raw = injections(n - (pinned >= 0 ? 1 : 0), 2 ** width - (pinned >= 0 ? 1 : 0), 2e6);
     const canonical = raw === Infinity ? Infinity : countCanonical(n, width, pinned);
-    if (canonical !== Infinity && canonical * perEval <= budget) {
+    // Reproducible by default: the choice of method and the search length depend on counts, not on
+    // the host's speed; the time budget is only a safety net (and the keystroke path's limit).
+    if (canonical <= EXHAUSTIVE_MAX && (canonical * perEval <= budget * 3 || budget >= 1000)) {
         let tried = 0;
         enumerateCanonical(n, width, pinned, (codes) => {
             tried++;
             consider(evaluate(codes));
-            return now() - start < budget * 1.5;
+            return now() - start < (budget >= 1000 ? budget * 5 : budget * 1.5);
         });
         method = `exhaustive over ${tried} of ${canonical} assignments (up to bit permutation${pinned >= 0 && !clear ? ' and complement' : ''})`;
     } else {
@@ -227,7 +234,7 @@ function localSearch(
             }
             for (const c of free) { const next = [...codes]; next[a] = c; options.push(next); }
             for (const next of options) {
-                if (now() - start > budget) break outer;
+                if (now() - start > budget || moves >= MAX_MOVES) break outer;
                 moves++;
                 const cand = evaluate(next);
                 consider(cand);
@@ -239,5 +246,6 @@ function localSearch(
             }
         }
     }
-    return `binary, gray and adjacency-driven starts, then swap search (${moves} moves${now() - start > budget ? ', stopped at the time budget' : ', local optimum'})`;
+    const why = moves >= MAX_MOVES ? `stopped at ${MAX_MOVES} moves` : now() - start > budget ? 'stopped at the time budget' : 'local optimum';
+    return `binary, gray and adjacency-driven starts, then swap search (${moves} moves, ${why})`;
 }

@@ -9,7 +9,6 @@
  * region kind; reachability treats it as hold, equivalence keeps such states apart.
  */
 import type { Machine, Emit } from '../model/machine.js';
-import type { Witness } from '../model/finding.js';
 import { type Cube, FREE, ONE, ZERO, cubeOf, getVar, intersect, intersects, isUniverse, someMinterm, universe } from '../boolean/cube.js';
 import { type Cover, coverCofactor, coverContainsCover, coverContainsCube, tautology } from '../boolean/cover.js';
 import { type GuardContext, guardContext, guardCover } from '../boolean/guard.js';
@@ -187,9 +186,6 @@ export function mintermInputs(machine: Machine, ctx: GuardContext, bits: readonl
     return r;
 }
 
-export function inputWitness(machine: Machine, ctx: GuardContext, bits: readonly (0 | 1)[]): Witness {
-    return { inputs: mintermInputs(machine, ctx, bits) };
-}
 
 /**
  * A minterm outside a unate cover that lacks the universal cube. Start from all zeros; while

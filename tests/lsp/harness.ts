@@ -145,6 +145,11 @@ export class LspSession {
         });
     }
 
+    /** How many diagnostics publications arrived for a document so far. */
+    publications(uri: string): number {
+        return this.diagnostics.get(uri)?.length ?? 0;
+    }
+
     /** Opens a document and resolves with its first diagnostics. */
     async open(uri: string, text: string): Promise<Diagnostic[]> {
         const next = this.nextDiagnostics(uri);

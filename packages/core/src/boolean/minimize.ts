@@ -25,7 +25,7 @@ export interface MinimizeOptions {
     readonly maxRows?: number;
     /** In 'auto', the exact search may take this many times the heuristic's time (default 1)… */
     readonly exactFactor?: number;
-    /** …but at least this many milliseconds (default 30). */
+    /** …but at least this many milliseconds (default 15). */
     readonly exactMinMs?: number;
 }
 
@@ -62,7 +62,7 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
         maxRows: big ? 10_000_000 : options.maxRows ?? 20000,
         // In 'auto' the exact search gets time in proportion to the heuristic's (it is an
         // improvement step); 'exact' may use the whole budget.
-        deadline: big ? deadline : Math.min(deadline, cpuNow() + Math.max(options.exactMinMs ?? 30, (options.exactFactor ?? 1) * heuristicMs)),
+        deadline: big ? deadline : Math.min(deadline, cpuNow() + Math.max(options.exactMinMs ?? 15, (options.exactFactor ?? 1) * heuristicMs)),
     });
     if (outcome === null) return { cover, exact: false };
     if (outcome.cover && cheaper(coverCost(outcome.cover, nvars), hc)) cover = outcome.cover;

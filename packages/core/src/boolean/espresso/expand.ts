@@ -165,11 +165,16 @@ function expandAgainstOff(
             }
             if (blocked || any === 0) continue;
             let feasible = true;
-            for (let a = 0; a < nActive && feasible; a++) {
+            for (let a = 0; a < nActive; a++) {
                 const base = active[a]! * words;
                 let ok = false;
                 for (let w = 0; w < words; w++) if ((rowMask[base + w]! & free[w]! & ~need[w]!) !== 0) { ok = true; break; }
-                if (!ok) feasible = false;
+                if (!ok) {
+                    feasible = false;
+                    // Move the blocking row to the front: it tends to block the next candidates too.
+                    if (a > 0) { const r = active[a]!; active[a] = active[0]!; active[0] = r; }
+                    break;
+                }
             }
             if (!feasible) continue;
             for (let w = 0; w < words; w++) {

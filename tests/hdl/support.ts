@@ -147,6 +147,27 @@ export function exampleMachines(): ExampleMachine[] {
     return out;
 }
 
+/**
+ * Machines whose signal and state names collide with the exporters' internal names (state_q,
+ * state_d, unused_inputs, <out>_q, CLEARED, state_t) or are C keywords (goto, char): the exports
+ * must rename their own signals, never the ports.
+ */
+export function awkwardMachines(count: number, seed: number): CorpusMachine[] {
+    const base = randomCorpus(count, seed, 'W');
+    const inNames = ['state_q', 'goto', 'unused_inputs', 'state_t'];
+    const outNames = ['state_d', 'char', 'lamp_q', 'lamp'];
+    return base.map((c) => {
+        const m = c.machine;
+        const machine: Machine = {
+            ...m,
+            inputs: m.inputs.map((i, k) => ({ ...i, name: inNames[k] ?? i.name })),
+            outputs: m.outputs.map((o, k) => ({ ...o, name: outNames[k] ?? o.name })),
+            states: m.states.map((st, k) => ({ ...st, name: k === 0 ? 'CLEARED' : k === 1 ? 'state_d_1' : st.name })),
+        };
+        return { machine, synth: synthesize(machine, { encoding: c.synth.assignment.encoding === 'auto' ? 'binary' : undefined, budgetMs: 30 }) };
+    });
+}
+
 export interface StimulusCycle {
     readonly reset: boolean;
     readonly inputs: readonly number[];

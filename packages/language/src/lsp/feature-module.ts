@@ -50,7 +50,6 @@ export const DetentLspFeatureModule: Module<DetentServices, PartialLangiumServic
     validation: {
         DocumentValidator: (services) => new DetentEditorValidator(services),
     },
-
 };
 
 /** Shared (workspace-wide) editor services: debounced, cancelling rebuilds. */

@@ -33,7 +33,7 @@ describe.runIf(toolsAvailable(TOOLS))('exports behave like the core simulator, c
             expected.set(c.machine.name, expectedDump(c, s));
             totalCycles += s.length;
         }
-    });
+    }, 120_000);
 
     const files = (lang: ExportLanguage, style: ExportStyle) => corpus.flatMap((c) => exportMachine(c.machine, lang, {
         style, statePort: true, sourceName: `${c.machine.name}.detent`, sourceText: c.machine.name, assignment: c.synth.assignment, synthesis: c.synth,

@@ -81,7 +81,7 @@ describe.runIf(toolsAvailable(['yosys']))('Yosys proves structural ≡ behaviora
     let corpus: CorpusMachine[] = [];
     beforeAll(() => {
         corpus = [...exampleMachines().map((e) => ({ machine: e.machine, synth: e.synth })), ...randomCorpus(40, 31337, 'E', true)];
-    });
+    }, 120_000);
 
     it('every example and 40 random machines', async () => {
         const dir = scratchDir('equiv');

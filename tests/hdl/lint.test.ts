@@ -19,7 +19,7 @@ describe.runIf(toolsAvailable(TOOLS))('Verilog/SystemVerilog exports: Verilator 
         const examples = exampleMachines();
         corpus = [...examples.map((e) => ({ machine: e.machine, synth: e.synth })), ...randomCorpus(200, 777, 'L'), ...awkwardMachines(8, 707)];
         expect(corpus.length).toBeGreaterThanOrEqual(200);
-    });
+    }, 120_000);
 
     for (const lang of ['verilog', 'systemverilog'] as const) {
         for (const style of ['behavioral', 'structural'] as const satisfies readonly ExportStyle[]) {

@@ -60,7 +60,7 @@ function breakScenario(machine: Machine): Machine {
 
 describe.runIf(toolsAvailable(['iverilog', 'vvp', 'ghdl']))('scenario testbenches in Icarus and GHDL', () => {
     let examples: ExampleMachine[] = [];
-    beforeAll(() => { examples = exampleMachines(); });
+    beforeAll(() => { examples = exampleMachines(); }, 120_000);
 
     it.concurrent('every example: all scenarios pass in every language and style', async () => {
         expect(examples.length).toBeGreaterThan(0);

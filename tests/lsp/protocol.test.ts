@@ -403,6 +403,10 @@ describe('editing features', () => {
         expect(children).toEqual(expect.arrayContaining(['Idle', 'StrokeA', 'StrokeB', 'both_hands', 'hands', 'done', 'press']));
         const idle = symbols[0]!.children!.find((c) => c.name === 'Idle')!;
         expect(idle.selectionRange).toEqual(wordRange(PRESS, 'Idle', 1));
+        // SymbolKind numbers of the LSP 3.17 specification: Class 5, Method 6, Property 7, Field 8, EnumMember 22
+        const kind = (name: string) => symbols[0]!.children!.find((c) => c.name === name)?.kind;
+        expect(symbols[0]!.kind).toBe(5);
+        expect([kind('Idle'), kind('hands'), kind('press'), kind('both_hands')]).toEqual([22, 8, 7, 6]);
     });
 
     it('formats idempotently and keeps comments and meaning', async () => {

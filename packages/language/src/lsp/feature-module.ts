@@ -15,6 +15,7 @@ import { DetentRenameProvider } from './rename-provider.js';
 import { DetentSemanticTokenProvider } from './semantic-token-provider.js';
 import { DetentFormatter } from './formatter.js';
 import { DetentCompletionProvider } from './completion-provider.js';
+import { DetentNodeKindProvider } from './node-kind-provider.js';
 import { DetentEditorValidator } from './editor-validator.js';
 import { DetentDocumentUpdateHandler } from './document-update-handler.js';
 
@@ -56,5 +57,6 @@ export const DetentLspFeatureModule: Module<DetentServices, PartialLangiumServic
 export const DetentLspSharedModule: Module<LangiumSharedServices, PartialLangiumSharedServices> = {
     lsp: {
         DocumentUpdateHandler: (shared) => new DetentDocumentUpdateHandler(shared),
+        NodeKindProvider: () => new DetentNodeKindProvider(),
     },
 };

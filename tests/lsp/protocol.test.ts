@@ -218,6 +218,18 @@ describe('hover', () => {
         }
     });
 
+    it('shows size, codes and cost on a machine name', async () => {
+        const uri = freshUri('machine-hover');
+        await session.open(uri, BARRIER);
+        const hover = await session.request<Hover>('textDocument/hover', { textDocument: { uri }, position: wordRange(BARRIER, 'BarrierGate').start });
+        const value = (hover.contents as { value: string }).value;
+        expect(value).toContain('**machine BarrierGate** — 3 states, 3 inputs, 1 output, 0 scenarios');
+        expect(value).toContain('Barrier at a car park exit.');
+        // binary codes by declaration order
+        expect(value).toContain('Closed `00`, Opening `01`, Open `10`');
+        expect(value).toContain('Detent checks logic, not safety certification');
+    });
+
     it('shows width and uses on a signal, and the witness on a diagnostic', async () => {
         const uri = freshUri('barrier-hover');
         await session.open(uri, BARRIER);

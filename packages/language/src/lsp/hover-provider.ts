@@ -8,7 +8,7 @@ import type { HoverProvider, LangiumServices } from 'langium/lsp';
 import type { Hover, HoverParams, Diagnostic } from 'vscode-languageserver-protocol';
 import * as ast from '../generated/ast.js';
 import type { DetentDocumentModel, MachineEntry } from './document-model.js';
-import { SAFETY_CAUTION, stateHoverMarkdown, witnessText } from './machine-text.js';
+import { SAFETY_CAUTION, machineHoverMarkdown, stateHoverMarkdown, witnessText } from './machine-text.js';
 import { failSoft } from './fail-soft.js';
 import type { Witness } from '@detent/core';
 
@@ -117,6 +117,12 @@ export class DetentHoverProvider implements HoverProvider {
                     machine: entry.machine, stateIndex: index, synthesis: outcome.result,
                     table: this.model.table(document, entry), synthesisNote: outcome.note,
                 }));
+            }
+        } else if (target && ast.isMachine(target)) {
+            const entry = this.model.machines(document).find((m) => m.node === target);
+            if (entry) {
+                const outcome = this.model.synthesis(document, entry);
+                parts.push(machineHoverMarkdown(entry.machine, outcome.result, outcome.note));
             }
         } else if (target && (ast.isInputSignal(target) || ast.isOutputSignal(target))) {
             const entry = this.entryOf(document, target);

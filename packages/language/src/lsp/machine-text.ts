@@ -101,6 +101,20 @@ export function stateHoverMarkdown(input: StateHoverInput): string {
     return parts.join('\n\n');
 }
 
+/** Hover on a machine's name: its documentation, size, codes and cost under the active encoding. */
+export function machineHoverMarkdown(machine: Machine, synthesis: SynthesisResult | undefined, note?: string): string {
+    const parts = [`**machine ${machine.name}** — ${plural(machine.states.length, 'state')}, ${plural(machine.inputs.length, 'input')}, ${plural(machine.outputs.length, 'output')}, ${plural(machine.scenarios.length, 'scenario')}`];
+    if (machine.doc) parts.push(machine.doc);
+    if (synthesis) {
+        parts.push(costTitle(synthesis.cost, synthesis.assignment.encoding, synthesis.flipflop));
+        parts.push(`Codes: ${machine.states.map((s, i) => `${s.name} \`${synthesis.assignment.codes[i]}\``).join(', ')}`);
+    } else if (note) {
+        parts.push(`_${note}_`);
+    }
+    parts.push(`_${SAFETY_CAUTION}_`);
+    return parts.join('\n\n');
+}
+
 /** A witness in words: `level = 3, overload = 1`, a path `Idle → Pumping`, a lock-up cycle. */
 export function witnessText(witness: Witness | undefined): string | undefined {
     if (!witness) return undefined;

@@ -102,3 +102,64 @@ export function compareCover(offset: number, width: number, op: CompareOp, value
 }
 
 export { removeContained, type Cover };
+
+/** Product terms a guard may need before the analyses refuse it (see docs/limits.md). */
+export const MAX_GUARD_CUBES = 4096;
+
+/**
+ * Like guardCover, but gives up (undefined) as soon as an intermediate cover would exceed
+ * maxCubes product terms — a long XOR chain or an AND of many bus comparisons has exponentially
+ * many, and every analysis and the synthesizer work on these covers (robustness: no hang).
+ */
+export function guardCoverBounded(guard: Guard, ctx: GuardContext, maxCubes = MAX_GUARD_CUBES): Cube[] | undefined {
+    const within = (c: Cube[] | undefined) => (c !== undefined && c.length <= maxCubes ? c : undefined);
+    // the pairwise products of an intersection are built before containment shrinks them
+    const intersectWithin = (a: Cube[], b: Cube[]) => (a.length * b.length > maxCubes * 16 ? undefined : within(coverIntersect(a, b, ctx.nvars)));
+    switch (guard.kind) {
+        case 'const': case 'input': case 'bit': case 'compare':
+            return guardCover(guard, ctx);
+        case 'not': {
+            const inner = guardCoverBounded(guard.operand, ctx, maxCubes);
+            return inner && inner.length <= 512 ? within(complement(inner, ctx.nvars)) : undefined;
+        }
+        case 'and': {
+            let acc: Cube[] | undefined = [universe(ctx.nvars)];
+            for (const op of guard.operands) {
+                const b = guardCoverBounded(op, ctx, maxCubes);
+                if (!b) return undefined;
+                acc = intersectWithin(acc, b);
+                if (!acc) return undefined;
+                if (acc.length === 0) break;
+            }
+            return acc;
+        }
+        case 'or': {
+            let acc: Cube[] = [];
+            for (const op of guard.operands) {
+                const b = guardCoverBounded(op, ctx, maxCubes);
+                if (!b) return undefined;
+                const u = within(coverUnion(acc, b));
+                if (!u) return undefined;
+                acc = u;
+            }
+            return acc;
+        }
+        case 'xor': {
+            let acc: Cube[] = [];
+            for (const op of guard.operands) {
+                const b = guardCoverBounded(op, ctx, maxCubes);
+                if (!b || acc.length > 512 || b.length > 512) return undefined;
+                const na = within(complement(acc, ctx.nvars));
+                const nb = within(complement(b, ctx.nvars));
+                if (!na || !nb) return undefined;
+                const left = intersectWithin(acc, nb);
+                const right = intersectWithin(na, b);
+                if (!left || !right) return undefined;
+                const u = within(coverUnion(left, right));
+                if (!u) return undefined;
+                acc = u;
+            }
+            return acc;
+        }
+    }
+}

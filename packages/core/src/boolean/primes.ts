@@ -46,16 +46,31 @@ function primesOf(f: Cube[], nvars: number, masks: Uint32Array, b: PrimeBudget):
     const shift = (v & 15) << 1;
     const low = 0x55555555;
     const cand: Cube[] = [];
-    for (const a of p0) for (const c of p1) {
-        const r = new Uint32Array(words);
-        let ok = true;
-        for (let i = 0; i < words; i++) {
-            const x = a[i]! & c[i]!;
-            const m = masks[i]! & low;
-            if (((x | (x >>> 1)) & m) !== m) { ok = false; break; }
-            r[i] = x;
+    if (words === 1) {
+        const m = masks[0]! & low;
+        for (const a of p0) {
+            const a0 = a[0]!;
+            for (const c of p1) {
+                const x = a0 & c[0]!;
+                if (((x | (x >>> 1)) & m) !== m) continue;
+                const r = new Uint32Array(1);
+                r[0] = x;
+                cand.push(r);
+            }
         }
-        if (ok) cand.push(r);
+    } else {
+        for (const a of p0) for (const c of p1) {
+            let ok = true;
+            for (let i = 0; i < words; i++) {
+                const x = a[i]! & c[i]!;
+                const m = masks[i]! & low;
+                if (((x | (x >>> 1)) & m) !== m) { ok = false; break; }
+            }
+            if (!ok) continue;
+            const r = new Uint32Array(words);
+            for (let i = 0; i < words; i++) r[i] = a[i]! & c[i]!;
+            cand.push(r);
+        }
     }
     for (const a of p0) { const r = a.slice(); r[w] = (r[w]! & ~(2 << shift)) >>> 0; cand.push(r); }
     for (const c of p1) { const r = c.slice(); r[w] = (r[w]! & ~(1 << shift)) >>> 0; cand.push(r); }
@@ -78,6 +93,24 @@ function containmentFree(f: Cube[], words: number, b: PrimeBudget): Cube[] {
         size[i] = (1000 - n) * 4194304 + i; // most free variables first
     }
     size.sort();
+    if (words === 1) {
+        // One-word cubes: compare plain numbers.
+        const keptVals = new Uint32Array(Math.min(f.length, b.limit + 1));
+        const kept1: Cube[] = [];
+        let nk = 0;
+        for (let k = 0; k < size.length; k++) {
+            if ((k & 1023) === 0 && cpuNow() > b.deadline) throw new TooManyPrimes();
+            const c = f[size[k]! % 4194304]!;
+            const v = c[0]!;
+            let inside = false;
+            for (let j = 0; j < nk; j++) if (((keptVals[j]! & v) >>> 0) === v) { inside = true; break; }
+            if (inside) continue;
+            if (nk >= keptVals.length) throw new TooManyPrimes();
+            keptVals[nk++] = v;
+            kept1.push(c);
+        }
+        return kept1;
+    }
     const kept: Cube[] = [];
     for (let k = 0; k < size.length; k++) {
         if ((k & 255) === 0 && cpuNow() > b.deadline) throw new TooManyPrimes();

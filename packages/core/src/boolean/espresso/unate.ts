@@ -373,6 +373,7 @@ function mergeHalves(c0: Cube[], c1: Cube[], v: number, masks: Uint32Array): Cub
 /** Removes cubes contained in another cube of the list (and duplicates). */
 export function singleCubeContainment(f: readonly Cube[], words: number): Cube[] {
     if (f.length < 2) return [...f];
+    if (words === 1) return singleWordContainment(f);
     const size = f.map((c) => {
         let n = 0;
         for (let i = 0; i < words; i++) { const x = c[i]!; n += popcount32(x & (x >>> 1) & LOW); }
@@ -387,6 +388,28 @@ export function singleCubeContainment(f: readonly Cube[], words: number): Cube[]
             for (let j = 0; j < words; j++) if (((k[j]! & c[j]!) >>> 0) !== c[j]) { inside = false; break; }
             if (inside) continue outer;
         }
+        kept.push(c);
+    }
+    return kept;
+}
+
+/** singleCubeContainment for one-word cubes, comparing plain numbers. */
+function singleWordContainment(f: readonly Cube[]): Cube[] {
+    const keys = new Float64Array(f.length);
+    for (let i = 0; i < f.length; i++) {
+        const x = f[i]![0]!;
+        // most free variables first; ties by position (stable)
+        keys[i] = (32 - popcount32(x & (x >>> 1) & LOW)) * 4194304 + i;
+    }
+    keys.sort();
+    const kept: Cube[] = [];
+    const vals = new Uint32Array(f.length);
+    let n = 0;
+    outer: for (let k = 0; k < keys.length; k++) {
+        const c = f[keys[k]! % 4194304]!;
+        const v = c[0]!;
+        for (let j = 0; j < n; j++) if (((vals[j]! & v) >>> 0) === v) continue outer;
+        vals[n++] = v;
         kept.push(c);
     }
     return kept;

@@ -2,11 +2,11 @@
  * `detent check` through the built CLI (`node packages/cli/bin/detent.js`, bundled by
  * scripts/build.mjs): output formats, exit codes (LANGUAGE.md "Command line": 0 no errors,
  * 1 errors, 2 usage or I/O) and each error path. SARIF output is validated with ajv (an
- * independent JSON Schema validator) against the SARIF 2.1.0 schema vendored in tests/fixtures
- * (source named in tests/fixtures/README.md).
+ * independent JSON Schema validator) against the OASIS SARIF 2.1.0 JSON schema vendored in
+ * tests/fixtures (source repository, path and commit in tests/fixtures/README.md).
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -177,22 +177,30 @@ describe('JSON', () => {
 
 describe('SARIF', () => {
     function validator() {
-        const schema = JSON.parse(readFileSync(join(root, 'tests', 'fixtures', 'sarif-2.1.0-rtm.5.json'), 'utf8')) as Record<string, unknown>;
-        // The schema is JSON Schema draft-04; ajv 8 reads its keywords once the draft-04 `$schema`/`id` markers are removed.
-        delete schema.$schema;
-        delete schema.id;
-        // unicodeRegExp off: one pattern of the schema (language tags) is not valid under the u flag
-        const ajv = new Ajv({ strict: false, allErrors: true, unicodeRegExp: false });
+        // The OASIS SARIF 2.1.0 schema (Committee Specification text, JSON Schema draft-07). Ajv 8's
+        // default export implements draft-07, and with ajv's default strictness the schema compiles
+        // unchanged: no keyword is removed and strict mode is not switched off.
+        const schema = JSON.parse(readFileSync(join(root, 'tests', 'fixtures', 'sarif-schema-2.1.0.json'), 'utf8')) as Record<string, unknown>;
+        expect(schema.$schema).toBe('http://json-schema.org/draft-07/schema#');
+        const ajv = new Ajv({ allErrors: true });
+        // ajv itself ships no format checks (ajv-formats is not installed): the schema's three formats
+        // are checked with the WHATWG URL parser and an RFC 3339 date-time pattern (from memory)
         ajv.addFormat('uri', (s: string) => URL.canParse(s));
         ajv.addFormat('uri-reference', (s: string) => URL.canParse(s, 'file:///'));
         ajv.addFormat('date-time', /^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d(\.\d+)?(Z|[+-]\d\d:\d\d)$/i);
         return ajv.compile(schema);
     }
 
+    type Log = { version: string; runs: { tool: { driver: { rules: { id: string }[] } }; results: { ruleId: string; level: string; message?: unknown; locations: { physicalLocation: { region: { startLine: number } } }[]; properties: Record<string, unknown> }[] }[] };
+
+    function sarifOf(...paths: string[]): { status: number | null; log: Log } {
+        const r = detent('check', '--format', 'sarif', ...paths);
+        return { status: r.status, log: JSON.parse(r.stdout) as Log };
+    }
+
     test('valid SARIF 2.1.0 for a run with results of every severity, related locations and witnesses', () => {
-        const r = detent('check', '--format', 'sarif', join('examples', 'defects'), join('examples', 'sump-pump.detent'));
-        expect(r.status).toBe(1);
-        const log = JSON.parse(r.stdout) as { version: string; runs: { tool: { driver: { rules: { id: string }[] } }; results: { ruleId: string; level: string; locations: { physicalLocation: { region: { startLine: number } } }[]; properties: Record<string, unknown> }[] }[] };
+        const { status, log } = sarifOf(join('examples', 'defects'), join('examples', 'sump-pump.detent'));
+        expect(status).toBe(1);
         const validate = validator();
         const ok = validate(log);
         expect(validate.errors ?? []).toEqual([]);
@@ -209,5 +217,127 @@ describe('SARIF', () => {
         const validate = validator();
         expect(validate({ version: '2.1.0', runs: [{ tool: { driver: {} }, results: [] }] })).toBe(false);
         expect(validate({ version: '2.0.0', runs: [] })).toBe(false);
+    });
+
+    test('a result without `message` is rejected (SARIF 2.1.0: result.message is required)', () => {
+        const validate = validator();
+        const { log } = sarifOf(join('examples', 'defects', 'overlap.detent'));
+        expect(validate(log)).toBe(true);
+        delete log.runs[0]!.results[0]!.message;
+        expect(validate(log)).toBe(false);
+        expect(validate.errors).toContainEqual(expect.objectContaining({
+            instancePath: '/runs/0/results/0', keyword: 'required', params: { missingProperty: 'message' },
+        }));
+    });
+
+    test('a region with a 0 line (SARIF lines are 1-based) is rejected', () => {
+        const validate = validator();
+        const { log } = sarifOf(join('examples', 'defects', 'overlap.detent'));
+        log.runs[0]!.results[0]!.locations[0]!.physicalLocation.region.startLine = 0;
+        expect(validate(log)).toBe(false);
+    });
+});
+
+describe('.detentignore (folder recursion only)', () => {
+    const machine = 'machine M { reset r -> A1; input go; output lit; state A1 { when go -> B1; otherwise stay; } state B1 { emit lit; when !go -> A1; otherwise stay; } }\n';
+
+    function tree(name: string, files: readonly string[], ignores: Readonly<Record<string, string>>): string {
+        const dir = join(work, name);
+        for (const f of files) {
+            mkdirSync(join(dir, f, '..'), { recursive: true });
+            writeFileSync(join(dir, f), machine);
+        }
+        for (const [folder, text] of Object.entries(ignores)) {
+            mkdirSync(join(dir, folder), { recursive: true });
+            writeFileSync(join(dir, folder, '.detentignore'), text);
+        }
+        return dir;
+    }
+
+    function jsonPaths(stdout: string): string[] {
+        return (JSON.parse(stdout) as { files: { path: string }[] }).files.map((f) => f.path);
+    }
+
+    test('`detent check examples`: exit 0, no error line; every defect file counted as skipped', () => {
+        const r = detent('check', 'examples');
+        expect(r.status).toBe(0);
+        expect(r.stdout.split('\n').filter((l) => / error /.test(l))).toEqual([]);
+        // the count comes from the file system, not from our output
+        const defects = readdirSync(join(root, 'examples', 'defects')).filter((f) => f.endsWith('.detent')).length;
+        expect(defects).toBeGreaterThan(0);
+        expect(r.stderr).toMatch(new RegExp(`^\\d+ files checked: 0 errors, .*; ${defects} files skipped by \\.detentignore\\n$`));
+    });
+
+    test('named paths are always checked: `detent check examples/defects` and one defect file exit 1', () => {
+        const folder = detent('check', join('examples', 'defects'));
+        expect(folder.status).toBe(1);
+        expect(folder.stderr).not.toContain('skipped');
+        const file = detent('check', join('examples', 'defects', 'overlap.detent'));
+        expect(file.status).toBe(1);
+        expect(file.stdout).toContain(' error overlap: ');
+    });
+
+    test('globs (* and ?), folder-only patterns, nested ignore files, comments, CRLF lines', () => {
+        const dir = tree('ignore-tree', [
+            'keep.detent', 'skip.detent', 'draft-1.detent', 'draft-10.detent', 'a.wip.detent', 'archive.detent',
+            join('archive', 'old1.detent'), join('archive', 'old2.detent'), join('build', 'gen.detent'),
+            join('sub', 'x.detent'), join('sub', 'b.wip.detent'), join('sub', 'c.detent'),
+            join('sub', 'deep', 'x.detent'), join('sub', 'deep', 'y.detent'), join('node_modules', 'n.detent'),
+        ], {
+            '.': [
+                '# skip.detent is only named in this comment, so it is still checked',
+                '',
+                '   # an indented comment',
+                'draft-?.detent',
+                '*.wip.detent',
+                'arch*/',
+                'build',
+                'sub/deep/x.detent',
+            ].join('\n'),
+            sub: 'c.detent\r\n# CRLF line endings\r\n',
+        });
+        const r = detent('check', '--format', 'json', dir);
+        expect(r.status).toBe(0);
+        // expected by reading the rules above: `?` is one character (draft-10 stays), `*` stops at `/`
+        // (sub/b.wip stays), `arch*/` skips the folder but not archive.detent, `build` skips the folder,
+        // a slash pattern is relative to its own folder (sub/x stays), sub/.detentignore skips sub/c
+        expect(jsonPaths(r.stdout)).toEqual([
+            'archive.detent', 'draft-10.detent', 'keep.detent', 'skip.detent',
+            join('sub', 'b.wip.detent'), join('sub', 'deep', 'y.detent'), join('sub', 'x.detent'),
+        ].map((f) => join(dir, f)));
+        // skipped: draft-1, a.wip, archive/old1, archive/old2, build/gen, sub/deep/x, sub/c (node_modules is not counted)
+        expect(r.stderr).toBe('detent check: 7 files skipped by .detentignore\n');
+        const text = detent('check', dir);
+        expect(text.stderr).toBe('7 files checked: 0 errors, 0 warnings, 0 info; 7 files skipped by .detentignore\n');
+    });
+
+    test('an ignored file or folder named on the command line is checked', () => {
+        const dir = tree('ignore-explicit', ['keep.detent', 'draft-1.detent', join('vendor', 'v.detent')], { '.': 'draft-?.detent\nvendor/\n' });
+        const file = detent('check', '--format', 'json', join(dir, 'draft-1.detent'));
+        expect(jsonPaths(file.stdout)).toEqual([join(dir, 'draft-1.detent')]);
+        const folder = detent('check', '--format', 'json', join(dir, 'vendor'));
+        expect(jsonPaths(folder.stdout)).toEqual([join(dir, 'vendor', 'v.detent')]);
+        expect(folder.stderr).toBe('');
+    });
+
+    test('a folder whose every file is ignored: exit 2, saying how many were skipped', () => {
+        const dir = tree('ignore-all', ['a.detent', 'b.detent'], { '.': '*.detent\n' });
+        const r = detent('check', dir);
+        expect(r.status).toBe(2);
+        expect(r.stderr).toBe(`detent check: ${dir}: no .detent files to check (2 files skipped by .detentignore)\n`);
+    });
+
+    test("a '!' (re-include) line is refused with its line number, exit 2", () => {
+        const dir = tree('ignore-bang', ['a.detent'], { '.': '# fine\n*.detent\n!a.detent\n' });
+        const r = detent('check', dir);
+        expect(r.status).toBe(2);
+        expect(r.stderr).toBe(`detent check: ${join(dir, '.detentignore')}:3: '!' (re-include) is not supported; list only what to skip\n`);
+    });
+
+    test('`detent test` walks folders the same way', () => {
+        const all = detent('test', 'examples');
+        expect(all.status).toBe(0);
+        expect(all.stdout).not.toContain('defects');
+        expect(detent('test', join('examples', 'defects')).status).toBe(1);
     });
 });

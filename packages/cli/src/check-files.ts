@@ -1,22 +1,43 @@
 /**
- * Which files `detent check` reads, and reading them: folders recurse into `*.detent` (sorted,
- * skipping node_modules and .git); a file that is missing, unreadable or not UTF-8 is a usage/I-O
- * error (exit 2) with a one-line message.
+ * Which files `detent check` / `detent test` read, and reading them: folders recurse into
+ * `*.detent` (sorted, skipping node_modules, .git and what a `.detentignore` lists); a file that
+ * is missing, unreadable or not UTF-8 is a usage/I-O error (exit 2) with a one-line message.
+ *
+ * `.detentignore` (in any folder the walk enters): one pattern per line, relative to that folder;
+ * blank lines and lines starting with `#` are skipped; `*` matches any run of characters except
+ * `/`, `?` one such character; a trailing `/` matches folders only. Paths named on the command
+ * line are always read, whatever an ignore file says — the file only steers folder recursion.
  */
-import { readFileSync, readdirSync, statSync } from 'node:fs';
-import { join } from 'node:path';
+import { readFileSync, readdirSync, statSync, type Dirent } from 'node:fs';
+import { join, relative, sep } from 'node:path';
 import { UsageError } from './io.js';
 
 const SKIPPED_FOLDERS = new Set(['node_modules', '.git']);
+
+/** Name of the per-folder ignore file. */
+export const IGNORE_FILE = '.detentignore';
 
 export interface SourceFile {
     readonly path: string;
     readonly text: string;
 }
 
+export interface CollectedFiles {
+    /** Files to read, in a stable order, without duplicates. */
+    readonly files: string[];
+    /** `.detent` files left out by a `.detentignore` (those inside ignored folders included). */
+    readonly ignored: number;
+}
+
 /** Expands the command-line paths to the list of files to check, in a stable order. */
 export function collectFiles(command: string, paths: readonly string[]): string[] {
+    return collectFilesWithIgnored(command, paths).files;
+}
+
+/** Like `collectFiles`, and also counts what `.detentignore` files left out, so callers can say so. */
+export function collectFilesWithIgnored(command: string, paths: readonly string[]): CollectedFiles {
     const files: string[] = [];
+    let ignored = 0;
     for (const path of paths) {
         let stats;
         try {
@@ -25,35 +46,128 @@ export function collectFiles(command: string, paths: readonly string[]): string[
             throw new UsageError(`detent ${command}: ${path}: ${describe(err, 'no such file or folder')}`);
         }
         if (stats.isDirectory()) {
-            const found = findDetentFiles(command, path);
-            if (found.length === 0) throw new UsageError(`detent ${command}: ${path}: no .detent files in this folder`);
-            files.push(...found);
+            const walk: Walk = { command, found: [], ignored: 0 };
+            findDetentFiles(walk, path, []);
+            if (walk.found.length === 0) {
+                const why = walk.ignored > 0 ? `no .detent files to check (${plural(walk.ignored, 'file')} skipped by ${IGNORE_FILE})` : 'no .detent files in this folder';
+                throw new UsageError(`detent ${command}: ${path}: ${why}`);
+            }
+            files.push(...walk.found);
+            ignored += walk.ignored;
         } else {
             files.push(path);
         }
     }
-    return [...new Set(files)];
+    return { files: [...new Set(files)], ignored };
 }
 
-function findDetentFiles(command: string, folder: string): string[] {
-    let entries;
+interface Walk {
+    readonly command: string;
+    readonly found: string[];
+    ignored: number;
+}
+
+/** The patterns of one `.detentignore`, matched against paths relative to `base`. */
+interface IgnoreRules {
+    readonly base: string;
+    readonly patterns: readonly IgnorePattern[];
+}
+
+interface IgnorePattern {
+    readonly regex: RegExp;
+    readonly foldersOnly: boolean;
+}
+
+function findDetentFiles(walk: Walk, folder: string, inherited: readonly IgnoreRules[]): void {
+    const entries = readFolder(walk.command, folder);
+    const ignoreEntry = entries.find((e) => e.name === IGNORE_FILE && (e.isFile() || e.isSymbolicLink()));
+    const rules = ignoreEntry ? [...inherited, readIgnoreFile(walk.command, folder)] : inherited;
+    for (const entry of entries) {
+        const path = join(folder, entry.name);
+        if (entry.isDirectory()) {
+            if (SKIPPED_FOLDERS.has(entry.name)) continue;
+            if (isIgnored(rules, path, true)) walk.ignored += countDetentFiles(path);
+            else findDetentFiles(walk, path, rules);
+        } else if (isDetentFile(entry)) {
+            if (isIgnored(rules, path, false)) walk.ignored++;
+            else walk.found.push(path);
+        }
+    }
+}
+
+function readFolder(command: string, folder: string): Dirent[] {
+    let entries: Dirent[];
     try {
         entries = readdirSync(folder, { withFileTypes: true });
     } catch (err) {
         throw new UsageError(`detent ${command}: ${folder}: ${describe(err, 'cannot read folder')}`);
     }
-    const names = entries.map((e) => e.name).sort();
-    const found: string[] = [];
-    for (const name of names) {
-        const entry = entries.find((e) => e.name === name)!;
-        const path = join(folder, name);
+    // code-unit order, not locale order, so every machine lists the same sequence
+    return entries.sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
+}
+
+function isDetentFile(entry: Dirent): boolean {
+    return entry.name.endsWith('.detent') && (entry.isFile() || entry.isSymbolicLink());
+}
+
+/** Counts the `.detent` files under an ignored folder (best effort: an unreadable folder counts 0). */
+function countDetentFiles(folder: string): number {
+    let entries: Dirent[];
+    try {
+        entries = readdirSync(folder, { withFileTypes: true });
+    } catch {
+        return 0;
+    }
+    let n = 0;
+    for (const entry of entries) {
         if (entry.isDirectory()) {
-            if (!SKIPPED_FOLDERS.has(name)) found.push(...findDetentFiles(command, path));
-        } else if (name.endsWith('.detent') && (entry.isFile() || entry.isSymbolicLink())) {
-            found.push(path);
+            if (!SKIPPED_FOLDERS.has(entry.name)) n += countDetentFiles(join(folder, entry.name));
+        } else if (isDetentFile(entry)) {
+            n++;
         }
     }
-    return found;
+    return n;
+}
+
+function isIgnored(rules: readonly IgnoreRules[], path: string, isFolder: boolean): boolean {
+    for (const r of rules) {
+        const rel = relative(r.base, path).split(sep).join('/');
+        if (r.patterns.some((p) => (isFolder || !p.foldersOnly) && p.regex.test(rel))) return true;
+    }
+    return false;
+}
+
+function readIgnoreFile(command: string, folder: string): IgnoreRules {
+    const path = join(folder, IGNORE_FILE);
+    const text = readSource(command, path).text;
+    const patterns: IgnorePattern[] = [];
+    text.split('\n').forEach((raw, index) => {
+        const line = raw.trim();
+        if (line === '' || line.startsWith('#')) return;
+        const where = `detent ${command}: ${path}:${index + 1}`;
+        if (line.startsWith('!')) throw new UsageError(`${where}: '!' (re-include) is not supported; list only what to skip`);
+        const foldersOnly = line.endsWith('/');
+        // a leading `/` changes nothing (patterns are relative to this folder already)
+        const glob = line.replace(/\/+$/, '').replace(/^\/+/, '');
+        if (glob === '') throw new UsageError(`${where}: empty pattern '${line}'`);
+        patterns.push({ regex: globToRegExp(glob), foldersOnly });
+    });
+    return { base: folder, patterns };
+}
+
+/** `*` → any run of non-`/` characters, `?` → one non-`/` character, everything else literal. */
+function globToRegExp(glob: string): RegExp {
+    let source = '';
+    for (const ch of glob) {
+        if (ch === '*') source += '[^/]*';
+        else if (ch === '?') source += '[^/]';
+        else source += ch.replace(/[.+^${}()|[\]\\]/g, '\\$&');
+    }
+    return new RegExp(`^${source}$`, 'u');
+}
+
+function plural(n: number, word: string): string {
+    return `${n} ${word}${n === 1 ? '' : 's'}`;
 }
 
 const utf8 = new TextDecoder('utf-8', { fatal: true });

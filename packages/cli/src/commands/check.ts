@@ -6,7 +6,7 @@ import { checkText } from '@detent/language';
 import { parseArgs, stringFlag } from '../args.js';
 import type { CliIO } from '../io.js';
 import { UsageError } from '../io.js';
-import { collectFiles, readSource } from '../check-files.js';
+import { IGNORE_FILE, collectFilesWithIgnored, readSource } from '../check-files.js';
 import { type FileReport, jsonReport, sarifReport, summary, textReport } from '../check-report.js';
 // main.ts imports this module too; VERSION is read only when the command runs, so the cycle is harmless
 import { VERSION } from '../main.js';
@@ -19,7 +19,9 @@ const FLAGS = {
 export const CHECK_HELP = `Usage: detent check PATH… [--format text|json|sarif]
 
 Checks every machine in the given .detent files and folders (folders are searched
-recursively for *.detent, skipping node_modules and .git).
+recursively for *.detent, skipping node_modules, .git and whatever a .detentignore file in a
+searched folder lists: one name or glob per line, relative to that folder, * and ? wildcards,
+a trailing / for folders only, # comments). Files named on the command line are always checked.
 
   --format text    file:line:col: severity code: message (default)
   --format json    {"files":[{"path","diagnostics":[…]}]} with 0-based LSP ranges
@@ -38,13 +40,18 @@ export async function checkCommand(args: readonly string[], io: CliIO): Promise<
     }
     if (parsed.positionals.length === 0) throw new UsageError('detent check: missing PATH (a .detent file or a folder); see `detent check --help`');
     const format = stringFlag(parsed, 'format') ?? 'text';
-    const sources = collectFiles('check', parsed.positionals).map((p) => readSource('check', p));
+    const collected = collectFilesWithIgnored('check', parsed.positionals);
+    const sources = collected.files.map((p) => readSource('check', p));
     const reports: FileReport[] = sources.map((s) => ({ path: s.path, findings: checkText(s.text, s.path) }));
-    if (format === 'json') io.stdout(jsonReport(reports));
-    else if (format === 'sarif') io.stdout(sarifReport(reports, VERSION));
-    else {
+    // skipped files are always mentioned on stderr, so an ignore file never hides anything silently
+    const skipped = collected.ignored > 0 ? `${collected.ignored} file${collected.ignored === 1 ? '' : 's'} skipped by ${IGNORE_FILE}` : '';
+    if (format === 'json' || format === 'sarif') {
+        io.stdout(format === 'json' ? jsonReport(reports) : sarifReport(reports, VERSION));
+        if (skipped) io.stderr(`detent check: ${skipped}\n`);
+    } else {
         io.stdout(textReport(reports));
-        io.stderr(summary(reports));
+        const line = summary(reports);
+        io.stderr(skipped ? `${line.replace(/\n$/, '')}; ${skipped}\n` : line);
     }
     return reports.some((r) => r.findings.some((f) => f.severity === 'error')) ? 1 : 0;
 }

@@ -62,7 +62,10 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
         maxRows: big ? 10_000_000 : options.maxRows ?? 20000,
         // In 'auto' the exact search gets time in proportion to the heuristic's (it is an
         // improvement step); 'exact' may use the whole budget.
-        deadline: big ? deadline : Math.min(deadline, cpuNow() + Math.max(options.exactMinMs ?? 15, (options.exactFactor ?? 1) * heuristicMs)),
+        // When even the OFF-set was too large to compute (one-hot style covers), the covering
+        // problem is too: the exact step then only gets its minimum time.
+        deadline: big ? deadline : Math.min(deadline, cpuNow() + Math.max(options.exactMinMs ?? 15,
+            h.target.off === null ? 0 : (options.exactFactor ?? 1) * heuristicMs)),
     });
     if (outcome === null) return { cover, exact: false };
     if (outcome.cover && cheaper(coverCost(outcome.cover, nvars), hc)) cover = outcome.cover;

@@ -9,7 +9,7 @@ import { containsPosition, toRange, type DetentRequests } from './requests.js';
 const EDIT_DEBOUNCE_MS = 300;
 const CURSOR_DEBOUNCE_MS = 80;
 
-interface RenderedMachine { name: string; svg?: string; error?: string }
+interface RenderedMachine { name: string; states: string[]; svg?: string; error?: string }
 
 export class DiagramPanel implements vscode.Disposable {
     static readonly viewType = 'detent.diagram';
@@ -91,13 +91,13 @@ export class DiagramPanel implements vscode.Disposable {
         for (const m of result.machines) {
             if (m.dot.trim() === '') {
                 // The server sends no DOT for a machine it cannot draw (errors in it, or no drawing available).
-                machines.push({ name: m.name, error: 'No diagram for this machine right now: fix the errors shown in Problems.' });
+                machines.push({ name: m.name, states: [], error: 'No diagram for this machine right now: fix the errors shown in Problems.' });
                 continue;
             }
             try {
-                machines.push({ name: m.name, svg: sanitizeSvg(await dotToSvg(m.dot)) });
+                machines.push({ name: m.name, states: m.states.map((st) => st.name), svg: sanitizeSvg(await dotToSvg(m.dot)) });
             } catch (e) {
-                machines.push({ name: m.name, error: `Graphviz could not lay out this machine: ${String(e)}` });
+                machines.push({ name: m.name, states: [], error: `Graphviz could not lay out this machine: ${String(e)}` });
             }
         }
         if (gen !== this.generation) return; // a newer edit already asked again

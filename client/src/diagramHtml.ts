@@ -43,6 +43,7 @@ h2 { font-size: 1.05em; font-weight: 600; margin: 10px 0 4px; }
 .machine svg .edge path { stroke: var(--vscode-editor-foreground); fill: none; }
 .machine svg .edge polygon { fill: var(--vscode-editor-foreground); stroke: var(--vscode-editor-foreground); }
 .machine svg .node { cursor: pointer; }
+.machine svg .node.marker { cursor: default; }
 .machine svg .node.current polygon, .machine svg .node.current ellipse, .machine svg .node.current path {
     fill: var(--vscode-editor-selectionBackground, #264f78); stroke: var(--vscode-focusBorder, #007fd4); stroke-width: 2px; }
 .caution { opacity: .6; font-size: .85em; margin-top: 12px; }
@@ -87,7 +88,10 @@ const SCRIPT = `
             } else if (m.error) {
                 const p = document.createElement('p'); p.className = 'note'; p.textContent = m.error; box.appendChild(p);
             }
+            const states = new Set(m.states || []);
             for (const g of box.querySelectorAll('g.node')) {
+                // Only real states are clickable; the drawing may add markers such as the reset arrow's source.
+                if (!states.has(nodeName(g))) { g.classList.add('marker'); continue; }
                 g.setAttribute('data-state', nodeName(g));
                 g.addEventListener('click', () => vscode.postMessage({ type: 'reveal', machine: m.name, state: nodeName(g) }));
             }

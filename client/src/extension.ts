@@ -7,7 +7,7 @@ import {
 } from '../../packages/language/src/lsp/protocol.js';
 import { DiagramPanel } from './diagram.js';
 import { exportCommand, type ExportArgs } from './exportCommand.js';
-import { createLanguageClient } from './languageClient.js';
+import { createLanguageClient, serverWorkspaceReady } from './languageClient.js';
 import { compareEncodings, REPORT_SCHEME, ReportDocuments, showEquations } from './reports.js';
 import { activeDetentEditor, DetentRequests } from './requests.js';
 import { CostStatus } from './statusBar.js';
@@ -35,7 +35,7 @@ export async function activate(context: vscode.ExtensionContext): Promise<void> 
     output.appendLine(`Detent ${String(context.extension.packageJSON.version ?? '')} — workspace ${vscode.workspace.isTrusted ? 'trusted' : 'in Restricted Mode (analysis only; Export asks before writing)'}`);
 
     client = createLanguageClient(context, output);
-    const requests = new DetentRequests(client);
+    const requests = new DetentRequests(client, serverWorkspaceReady);
     const reports = new ReportDocuments();
     const diagram = new DiagramPanel(requests, output);
     const tests = new ScenarioTests(requests, output);

@@ -25,6 +25,15 @@ export function readSettings(): DetentSettings {
     };
 }
 
+/**
+ * Resolves when the server has published its first diagnostics (its initial workspace build is done),
+ * or after `WORKSPACE_READY_TIMEOUT_MS`. Custom requests wait for it: asked earlier, the server would
+ * load a document from disk while its own workspace scan adds the same document.
+ */
+const WORKSPACE_READY_TIMEOUT_MS = 8000;
+let markReady: (() => void) | undefined;
+export const serverWorkspaceReady: Promise<void> = new Promise<void>((resolve) => { markReady = resolve; });
+
 export function createLanguageClient(context: vscode.ExtensionContext, output: vscode.LogOutputChannel): LanguageClient {
     const module = serverModulePath(context);
     output.appendLine(`Starting the Detent language server: ${module}`);
@@ -35,6 +44,12 @@ export function createLanguageClient(context: vscode.ExtensionContext, output: v
     const clientOptions: LanguageClientOptions = {
         documentSelector: [{ language: 'detent' }],
         outputChannel: output,
+        middleware: {
+            handleDiagnostics: (uri, diagnostics, next) => {
+                markReady?.();
+                next(uri, diagnostics);
+            },
+        },
         initializationOptions: readSettings(),
         synchronize: {
             // Sends the `detent` section with workspace/didChangeConfiguration whenever it changes.
@@ -42,5 +57,7 @@ export function createLanguageClient(context: vscode.ExtensionContext, output: v
             fileEvents: vscode.workspace.createFileSystemWatcher('**/*.detent'),
         },
     };
-    return new LanguageClient('detent', 'Detent', serverOptions, clientOptions);
+    const client = new LanguageClient('detent', 'Detent', serverOptions, clientOptions);
+    setTimeout(() => markReady?.(), WORKSPACE_READY_TIMEOUT_MS).unref?.();
+    return client;
 }

@@ -9,15 +9,21 @@ import {
 } from '../../packages/language/src/lsp/protocol.js';
 
 export class DetentRequests {
-    constructor(private readonly client: LanguageClient) {}
+    /** `ready`: requests wait for it (the server's initial workspace build, see serverWorkspaceReady). */
+    constructor(private readonly client: LanguageClient, private readonly ready: Promise<void> = Promise.resolve()) {}
 
-    diagram(p: DiagramParams): Promise<DiagramResult> { return this.client.sendRequest<DiagramResult>(DIAGRAM_REQUEST, p); }
-    equations(p: EquationsParams): Promise<EquationsResult> { return this.client.sendRequest<EquationsResult>(EQUATIONS_REQUEST, p); }
-    compare(p: CompareParams): Promise<CompareResult> { return this.client.sendRequest<CompareResult>(COMPARE_REQUEST, p); }
-    export(p: ExportParams): Promise<ExportResult> { return this.client.sendRequest<ExportResult>(EXPORT_REQUEST, p); }
-    scenarios(p: ScenariosParams): Promise<ScenariosResult> { return this.client.sendRequest<ScenariosResult>(SCENARIOS_REQUEST, p); }
-    runScenarios(p: RunScenariosParams): Promise<RunScenariosResult> { return this.client.sendRequest<RunScenariosResult>(RUN_SCENARIOS_REQUEST, p); }
-    status(p: StatusParams): Promise<StatusResult> { return this.client.sendRequest<StatusResult>(STATUS_REQUEST, p); }
+    private async send<R>(method: string, params: object): Promise<R> {
+        await this.ready;
+        return this.client.sendRequest<R>(method, params);
+    }
+
+    diagram(p: DiagramParams): Promise<DiagramResult> { return this.send<DiagramResult>(DIAGRAM_REQUEST, p); }
+    equations(p: EquationsParams): Promise<EquationsResult> { return this.send<EquationsResult>(EQUATIONS_REQUEST, p); }
+    compare(p: CompareParams): Promise<CompareResult> { return this.send<CompareResult>(COMPARE_REQUEST, p); }
+    export(p: ExportParams): Promise<ExportResult> { return this.send<ExportResult>(EXPORT_REQUEST, p); }
+    scenarios(p: ScenariosParams): Promise<ScenariosResult> { return this.send<ScenariosResult>(SCENARIOS_REQUEST, p); }
+    runScenarios(p: RunScenariosParams): Promise<RunScenariosResult> { return this.send<RunScenariosResult>(RUN_SCENARIOS_REQUEST, p); }
+    status(p: StatusParams): Promise<StatusResult> { return this.send<StatusResult>(STATUS_REQUEST, p); }
 }
 
 export function toRange(r: Range0): vscode.Range {

@@ -288,6 +288,7 @@ function structuralBody(machine: Machine, options: ExportOptions, assignment: St
     const out: string[] = [];
     out.push(`module ${machine.name} (`, ...portList(machine, sv, options.statePort ?? false, w, () => false), ');');
     out.push(`    // State codes (${assignment.encoding}): ${machine.states.map((s, i) => `${s.name} = ${assignment.codes[i]}`).join(', ')}.`);
+    for (const s of machine.states) if (s.doc) out.push(...commentBlock('//', docLines(`${s.name}: ${s.doc}`), '    '));
     const initial = typeof machine.reset?.target === 'number' ? machine.reset.target : 0;
     out.push(`    ${sv ? 'logic' : 'reg'} [${w - 1}:0] ${stateQ}${machine.reset ? '' : ` = ${codeLiteral(assignment.codes[initial]!)}`};`);
     out.push(`    ${net} [${w - 1}:0] ${stateD};`);

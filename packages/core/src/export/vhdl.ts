@@ -221,6 +221,7 @@ function structural(machine: Machine, options: ExportOptions, assignment: StateA
     const code = (c: string) => `"${c}"`;
     const out: string[] = [`architecture structural of ${machine.name} is`];
     out.push(`    -- State codes (${assignment.encoding}): ${machine.states.map((s, i) => `${s.name} = ${assignment.codes[i]}`).join(', ')}.`);
+    for (const s of machine.states) if (s.doc) out.push(...commentBlock('--', docLines(`${s.name}: ${s.doc}`), '    '));
     out.push(`    signal ${regs.stateQ} : ${vec}${initialValue(machine, assignment, code)};`, `    signal ${regs.stateD} : ${vec};`);
     out.push(...regOutputDecls(machine, regs, !machine.reset));
     const ex: { eq: string; hdl: string }[][] = [];

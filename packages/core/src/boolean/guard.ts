@@ -113,8 +113,8 @@ export const MAX_GUARD_CUBES = 4096;
  */
 export function guardCoverBounded(guard: Guard, ctx: GuardContext, maxCubes = MAX_GUARD_CUBES): Cube[] | undefined {
     const within = (c: Cube[] | undefined) => (c !== undefined && c.length <= maxCubes ? c : undefined);
-    // the pairwise products of an intersection are built before containment shrinks them
-    const intersectWithin = (a: Cube[], b: Cube[]) => (a.length * b.length > maxCubes * 16 ? undefined : within(coverIntersect(a, b, ctx.nvars)));
+    // the pairwise products of an intersection are built (and containment-checked, quadratic) before they shrink
+    const intersectWithin = (a: Cube[], b: Cube[]) => (a.length * b.length > maxCubes ? undefined : within(coverIntersect(a, b, ctx.nvars)));
     switch (guard.kind) {
         case 'const': case 'input': case 'bit': case 'compare':
             return guardCover(guard, ctx);

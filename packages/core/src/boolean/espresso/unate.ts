@@ -7,6 +7,7 @@
  */
 import { cpuNow } from '../clock.js';
 import { type Cube, ONE, ZERO, universe, wordMask, wordsFor } from '../cube.js';
+import { scccWord, tautWord } from './word.js';
 
 const LOW = 0x55555555;
 
@@ -163,7 +164,15 @@ function cubeLiterals(c: Cube, masks: Uint32Array): number {
 
 /** True when the cover contains every minterm of the space. */
 export function isTautology(f: readonly Cube[], nvars: number): boolean {
-    return taut(f, nvars, masksFor(nvars));
+    const masks = masksFor(nvars);
+    if (masks.length === 1) return tautWord(wordValues(f), masks[0]!);
+    return taut(f, nvars, masks);
+}
+
+function wordValues(f: readonly Cube[]): Uint32Array {
+    const vals = new Uint32Array(f.length);
+    for (let i = 0; i < f.length; i++) vals[i] = f[i]![0]!;
+    return vals;
 }
 
 function taut(f: readonly Cube[], nvars: number, masks: Uint32Array): boolean {
@@ -230,7 +239,12 @@ export function coverHasCube(f: readonly Cube[], c: Cube, nvars: number): boolea
  * or null when f is a tautology.
  */
 export function complementSupercube(f: readonly Cube[], nvars: number): Cube | null {
-    return sccc(f, nvars, masksFor(nvars));
+    const masks = masksFor(nvars);
+    if (masks.length === 1) {
+        const s = scccWord(wordValues(f), masks[0]!);
+        return s === -1 ? null : Uint32Array.of(s);
+    }
+    return sccc(f, nvars, masks);
 }
 
 function sccc(f: readonly Cube[], nvars: number, masks: Uint32Array): Cube | null {

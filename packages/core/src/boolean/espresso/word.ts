@@ -1,0 +1,125 @@
+/**
+ * One-word versions (up to 16 variables) of tautology and of the supercube of a complement:
+ * a cube is a plain 32-bit number here, so the recursion allocates only small typed arrays.
+ * Same algorithms as unate.ts (unate reduction, majority phase first).
+ */
+const LOW = 0x55555555;
+
+function popcount(x: number): number {
+    x = x - ((x >>> 1) & 0x55555555);
+    x = (x & 0x33333333) + ((x >>> 2) & 0x33333333);
+    return (((x + (x >>> 4)) & 0x0f0f0f0f) * 0x01010101) >>> 24;
+}
+
+/** Low bit of the field of the most binate variable among `binate`, and whether 1 is the majority phase. */
+function splitVariable(vals: Uint32Array, len: number, candidates: number, lm: number): { bit: number; oneFirst: boolean } {
+    let bestBit = 0;
+    let bestScore = -1;
+    let bestOneFirst = true;
+    let y = candidates;
+    while (y !== 0) {
+        const b = y & -y;
+        y ^= b;
+        const pos = 31 - Math.clz32(b);
+        let z = 0;
+        let o = 0;
+        for (let i = 0; i < len; i++) {
+            const f = (vals[i]! >>> pos) & 3;
+            if (f === 1) z++;
+            else if (f === 2) o++;
+        }
+        const score = (z + o) * 1024 - Math.abs(z - o);
+        if (score > bestScore) { bestScore = score; bestBit = b; bestOneFirst = o >= z; }
+    }
+    void lm;
+    return { bit: bestBit, oneFirst: bestOneFirst };
+}
+
+/** Cubes of the literal cofactor (v = value) where `bit` is the low bit of v's field. */
+function cofactorWord(vals: Uint32Array, len: number, bit: number, value: 0 | 1): Uint32Array {
+    const out = new Uint32Array(len);
+    const pos = 31 - Math.clz32(bit);
+    const want = value === 1 ? 2 : 1;
+    const free = (3 << pos) >>> 0;
+    let k = 0;
+    for (let i = 0; i < len; i++) {
+        const x = vals[i]!;
+        const f = (x >>> pos) & 3;
+        if (f === 3) out[k++] = x;
+        else if (f === want) out[k++] = (x | free) >>> 0;
+    }
+    return out.subarray(0, k);
+}
+
+export function tautWord(vals: Uint32Array, mask: number): boolean {
+    const len = vals.length;
+    if (len === 0) return false;
+    const lm = mask & LOW;
+    let anyZero = 0;
+    let anyOne = 0;
+    let volume = 0;
+    for (let i = 0; i < len; i++) {
+        const x = vals[i]!;
+        if (x === mask) return true;
+        const z = x & ~(x >>> 1) & lm;
+        const o = (x >>> 1) & ~x & lm;
+        anyZero |= z;
+        anyOne |= o;
+        volume += 2 ** -popcount(z | o);
+    }
+    if (volume < 1 - 1e-9) return false;
+    const unate = (anyZero ^ anyOne) & lm;
+    if (unate !== 0) {
+        const g = new Uint32Array(len);
+        let k = 0;
+        for (let i = 0; i < len; i++) {
+            const x = vals[i]!;
+            if ((((x ^ (x >>> 1)) & unate)) === 0) g[k++] = x;
+        }
+        if (k < len) return tautWord(g.subarray(0, k), mask);
+    }
+    const binate = anyZero & anyOne;
+    if (binate === 0) return false;
+    const { bit, oneFirst } = splitVariable(vals, len, binate, lm);
+    const first: 0 | 1 = oneFirst ? 1 : 0;
+    return tautWord(cofactorWord(vals, len, bit, first), mask) && tautWord(cofactorWord(vals, len, bit, first === 1 ? 0 : 1), mask);
+}
+
+/** Supercube of the complement of the cover, or -1 when the cover is a tautology. */
+export function scccWord(vals: Uint32Array, mask: number): number {
+    const len = vals.length;
+    if (len === 0) return mask >>> 0;
+    const lm = mask & LOW;
+    for (let i = 0; i < len; i++) if (vals[i] === mask) return -1;
+    if (len === 1) {
+        const x = vals[0]!;
+        const lit = (x ^ (x >>> 1)) & lm;
+        if (popcount(lit) !== 1) return mask >>> 0;
+        const pos = 31 - Math.clz32(lit);
+        const f = (x >>> pos) & 3;
+        return ((mask & ~(3 << pos)) | ((f ^ 3) << pos)) >>> 0;
+    }
+    let anyZero = 0;
+    let anyOne = 0;
+    for (let i = 0; i < len; i++) {
+        const x = vals[i]!;
+        anyZero |= x & ~(x >>> 1) & lm;
+        anyOne |= (x >>> 1) & ~x & lm;
+    }
+    const binate = anyZero & anyOne;
+    const { bit } = splitVariable(vals, len, binate !== 0 ? binate : (anyZero | anyOne), lm);
+    const pos = 31 - Math.clz32(bit);
+    const free = (3 << pos) >>> 0;
+    const f0 = cofactorWord(vals, len, bit, 0);
+    const f1 = cofactorWord(vals, len, bit, 1);
+    const s0 = scccWord(f0, mask);
+    if (s0 === (mask >>> 0)) {
+        if (!tautWord(f1, mask)) return s0;
+        return ((s0 & ~free) | (1 << pos)) >>> 0;
+    }
+    const s1 = scccWord(f1, mask);
+    if (s0 === -1 && s1 === -1) return -1;
+    if (s0 === -1) return ((s1 & ~free) | (2 << pos)) >>> 0;
+    if (s1 === -1) return ((s0 & ~free) | (1 << pos)) >>> 0;
+    return (s0 | s1) >>> 0;
+}

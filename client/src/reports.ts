@@ -25,13 +25,18 @@ export class ReportDocuments implements vscode.TextDocumentContentProvider, vsco
         return this.contents.get(uri.toString()) ?? '';
     }
 
-    async open(name: string, text: string, language: string): Promise<vscode.TextEditor> {
+    /** Loads (or refreshes) the report document without showing it. */
+    async load(name: string, text: string, language: string): Promise<vscode.TextDocument> {
         const uri = vscode.Uri.from({ scheme: REPORT_SCHEME, path: `/${name}` });
         this.contents.set(uri.toString(), text);
         this.changed.fire(uri);
         const doc = await vscode.workspace.openTextDocument(uri);
-        const typed = doc.languageId === language ? doc : await vscode.languages.setTextDocumentLanguage(doc, language);
-        return vscode.window.showTextDocument(typed, { viewColumn: vscode.ViewColumn.Beside, preview: true, preserveFocus: false });
+        return doc.languageId === language ? doc : vscode.languages.setTextDocumentLanguage(doc, language);
+    }
+
+    async open(name: string, text: string, language: string): Promise<vscode.TextEditor> {
+        const doc = await this.load(name, text, language);
+        return vscode.window.showTextDocument(doc, { viewColumn: vscode.ViewColumn.Beside, preview: true, preserveFocus: false });
     }
 
     dispose(): void {
@@ -58,11 +63,12 @@ export async function compareEncodings(requests: DetentRequests, reports: Report
     if (!t) return;
     const { machine } = t;
     const { markdown } = await requests.compare({ uri: t.uri, machine });
-    const shown = await reports.open(`${machine} encodings.md`, markdown, 'markdown');
-    // The rendered table reads better than the Markdown source when the built-in preview is there.
+    const name = `${machine} encodings.md`;
+    const doc = await reports.load(name, markdown, 'markdown');
+    // The rendered table reads better than the Markdown source; show the source only without the built-in preview.
     try {
-        await vscode.commands.executeCommand('markdown.showPreviewToSide', shown.document.uri);
+        await vscode.commands.executeCommand('markdown.showPreviewToSide', doc.uri);
     } catch {
-        /* preview not available: the source stays open */
+        await reports.open(name, markdown, 'markdown');
     }
 }

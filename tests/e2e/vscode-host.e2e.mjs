@@ -9,7 +9,7 @@
 // export put on disk.
 //
 // Prints `N passed, N failed` as its last stdout line. Screenshots go to test-results/e2e/.
-import { existsSync, mkdirSync, readdirSync, readFileSync, statSync, writeFileSync, copyFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync, copyFileSync } from 'node:fs';
 import { dirname, join, relative } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { launchBrowser, log, prepareProfile, removeProfile, sleep, startCodeServer, withTimeout } from './host.mjs';
@@ -390,6 +390,7 @@ function saveDetentLogs(userData, label) {
 /** Runs both sessions; returns { passed, failed }. */
 export async function runVsCodeHostE2E({ entry, vsix, examples }) {
     const checks = new Checks();
+    rmSync(shots, { recursive: true, force: true }); // no stale screenshots from an earlier run
     mkdirSync(shots, { recursive: true });
     const only = process.env.DETENT_E2E_ONLY; // 'trusted' | 'restricted' while debugging
     for (const trust of [true, false].filter((t) => !only || only === (t ? 'trusted' : 'restricted'))) {

@@ -7,7 +7,7 @@
  */
 import { cpuNow } from '../clock.js';
 import { type Cube, ONE, ZERO, universe, wordMask, wordsFor } from '../cube.js';
-import { scccWord, tautWord } from './word.js';
+import { WordBudgetExceeded, complementWord, scccWord, tautWord } from './word.js';
 
 const LOW = 0x55555555;
 
@@ -299,6 +299,16 @@ class BudgetExceeded extends Error {}
  */
 export function complementWithin(f: readonly Cube[], nvars: number, maxCubes: number, deadline = Infinity): Cube[] | null {
     const masks = masksFor(nvars);
+    if (masks.length === 1) {
+        try {
+            const r = complementWord(wordValues(f), masks[0]!, { left: maxCubes * 8, maxCubes, deadline, calls: 0, now: cpuNow });
+            if (r.length > maxCubes) return null;
+            return Array.from(r, (v) => Uint32Array.of(v));
+        } catch (e) {
+            if (e instanceof WordBudgetExceeded) return null;
+            throw e;
+        }
+    }
     const budget = { left: maxCubes * 8, maxCubes, deadline, calls: 0 };
     try {
         const r = compl(f, nvars, masks, budget);

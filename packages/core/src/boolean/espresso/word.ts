@@ -123,3 +123,84 @@ export function scccWord(vals: Uint32Array, mask: number): number {
     if (s1 === -1) return ((s0 & ~free) | (1 << pos)) >>> 0;
     return (s0 | s1) >>> 0;
 }
+
+/** Thrown when the one-word complement exceeds its budget. */
+export class WordBudgetExceeded extends Error {}
+
+export interface WordBudget { left: number; readonly maxCubes: number; readonly deadline: number; calls: number; readonly now: () => number }
+
+/** Complement of a one-word cover (same recursion and lifting merge as unate.ts). */
+export function complementWord(vals: Uint32Array, mask: number, b: WordBudget): Uint32Array {
+    if ((++b.calls & 255) === 0 && b.now() > b.deadline) throw new WordBudgetExceeded();
+    const len = vals.length;
+    const lm = mask & LOW;
+    if (len === 0) return Uint32Array.of(mask >>> 0);
+    for (let i = 0; i < len; i++) if (vals[i] === mask) return new Uint32Array(0);
+    if (len === 1) {
+        const x = vals[0]!;
+        let lit = (x ^ (x >>> 1)) & lm;
+        const out = new Uint32Array(popcount(lit));
+        let k = 0;
+        while (lit !== 0) {
+            const bit = lit & -lit;
+            const pos = 31 - Math.clz32(bit);
+            const f = (x >>> pos) & 3;
+            out[k++] = ((mask & ~(3 << pos)) | ((f ^ 3) << pos)) >>> 0;
+            lit ^= bit;
+        }
+        b.left -= k;
+        if (b.left < 0) throw new WordBudgetExceeded();
+        return out;
+    }
+    let anyZero = 0;
+    let anyOne = 0;
+    for (let i = 0; i < len; i++) {
+        const x = vals[i]!;
+        anyZero |= x & ~(x >>> 1) & lm;
+        anyOne |= (x >>> 1) & ~x & lm;
+    }
+    const binate = anyZero & anyOne;
+    const { bit } = splitVariable(vals, len, binate !== 0 ? binate : (anyZero | anyOne), lm);
+    const pos = 31 - Math.clz32(bit);
+    const c0 = complementWord(cofactorWord(vals, len, bit, 0), mask, b);
+    const c1 = complementWord(cofactorWord(vals, len, bit, 1), mask, b);
+    const r = mergeWord(c0, c1, pos);
+    b.left -= r.length;
+    if (b.left < 0 || r.length > b.maxCubes) throw new WordBudgetExceeded();
+    return r;
+}
+
+function within(v: number, list: Uint32Array): boolean {
+    for (let i = 0; i < list.length; i++) if (((list[i]! & v) >>> 0) === v) return true;
+    return false;
+}
+
+/** x'·c0 + x·c1 with lifting (a cube of one half inside a cube of the other needs no x literal). */
+function mergeWord(c0: Uint32Array, c1: Uint32Array, pos: number): Uint32Array {
+    const small = c0.length * c1.length <= 250_000;
+    const lifted: number[] = [];
+    const fixed: number[] = [];
+    const clear = ~(3 << pos);
+    for (let i = 0; i < c0.length; i++) {
+        const a = c0[i]!;
+        if (small && within(a, c1)) lifted.push(a);
+        else fixed.push(((a & clear) | (1 << pos)) >>> 0);
+    }
+    for (let i = 0; i < c1.length; i++) {
+        const a = c1[i]!;
+        if (small && within(a, c0)) lifted.push(a);
+        else fixed.push(((a & clear) | (2 << pos)) >>> 0);
+    }
+    if (lifted.length === 0) return Uint32Array.from(fixed);
+    // Lifted cubes may contain each other and fixed ones; fixed ones contain no lifted one.
+    lifted.sort((x, y) => popcount(y & (y >>> 1) & LOW) - popcount(x & (x >>> 1) & LOW));
+    const kept: number[] = [];
+    for (const v of lifted) {
+        let inside = false;
+        for (const k of kept) if (((k & v) >>> 0) === v) { inside = true; break; }
+        if (!inside) kept.push(v);
+    }
+    const keptArr = Uint32Array.from(kept);
+    for (const v of fixed) if (!within(v, keptArr)) kept.push(v);
+    return Uint32Array.from(kept);
+}

@@ -10,6 +10,7 @@ import { cpuNow } from './clock.js';
 import { type Cube, isEmpty, wordsFor } from './cube.js';
 import { cheaper, coverCost, espressoHeuristic } from './espresso/loop.js';
 import { singleCubeContainment } from './espresso/unate.js';
+import { dontCaresOutside } from './dont-care.js';
 import { exactCover, productWeight } from './exact.js';
 
 export { minimizeMulti, type MultiFunction, type MultiResult } from './multi-output.js';
@@ -23,7 +24,7 @@ export interface MinimizeOptions {
     readonly maxPrimes?: number;
     /** Largest covering table (rows) the exact method accepts in 'auto' (default 20000). */
     readonly maxRows?: number;
-    /** In 'auto', the exact search may take this many times the heuristic's time (default 1)… */
+    /** In 'auto', the exact search may take this many times the heuristic's time (default 0.5)… */
     readonly exactFactor?: number;
     /** …but at least this many milliseconds (default 15). */
     readonly exactMinMs?: number;
@@ -45,7 +46,7 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
     const deadline = start + budget;
     const words = wordsFor(nvars);
     const onCubes = singleCubeContainment(on.filter((c) => !isEmpty(c, nvars)), words);
-    const dcCubes = dc.filter((c) => !isEmpty(c, nvars));
+    const dcCubes = dontCaresOutside(dc.filter((c) => !isEmpty(c, nvars)), onCubes, nvars);
     if (onCubes.length === 0) return { cover: [], exact: true };
     // The heuristic gets most of the budget only when exact work is not wanted.
     const heuristicDeadline = method === 'heuristic' ? deadline : start + Math.max(1, budget * 0.5);
@@ -65,7 +66,7 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
         // When even the OFF-set was too large to compute (one-hot style covers), the covering
         // problem is too: the exact step then only gets its minimum time.
         deadline: big ? deadline : Math.min(deadline, cpuNow() + Math.max(options.exactMinMs ?? 15,
-            h.target.off === null ? 0 : (options.exactFactor ?? 1) * heuristicMs)),
+            h.target.off === null ? 0 : (options.exactFactor ?? 0.5) * heuristicMs)),
     });
     if (outcome === null) return { cover, exact: false };
     if (outcome.cover && cheaper(coverCost(outcome.cover, nvars), hc)) cover = outcome.cover;

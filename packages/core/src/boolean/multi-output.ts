@@ -11,6 +11,7 @@
  */
 import { cpuNow } from './clock.js';
 import { type Cube, isEmpty, wordsFor } from './cube.js';
+import { dontCaresOutside } from './dont-care.js';
 import { cubeLiteralCount } from './espresso/expand.js';
 import { irredundant } from './espresso/irredundant.js';
 import { coverHasCube, cubeCofactor, singleCubeContainment } from './espresso/unate.js';
@@ -125,7 +126,7 @@ export function minimizeMulti(functions: readonly MultiFunction[], nvars: number
     // Per-function covers from the chosen products, made irredundant for that function.
     const covers = functions.map((fn, f) => {
         const mine = chosen.filter((j) => valid[j]!.includes(f)).map((j) => cands[j]!);
-        return irredundant(mine, fn.dc, nvars);
+        return irredundant(mine, dontCaresOutside(fn.dc.filter((c) => !isEmpty(c, nvars)), fn.on.filter((c) => !isEmpty(c, nvars)), nvars), nvars);
     });
     const used = new Map<string, { cube: Cube; users: number[] }>();
     covers.forEach((cv, f) => cv.forEach((c) => {

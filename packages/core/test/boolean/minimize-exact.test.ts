@@ -111,4 +111,22 @@ describe('minimize is exactly minimal on small functions (exhaustive oracle)', (
         }
         expect(proven).toBe(suite.length);
     });
+
+    it('40 functions whose don\'t-care cubes overlap the ON-set (a minterm in both is ON): sound and minimal', () => {
+        const r = rng(99_2026);
+        for (let k = 0; k < 40; k++) {
+            const n = 4 + Math.floor(r() * 4);
+            const cube = (p: number) => { let s = ''; for (let v = 0; v < n; v++) s += r() < p ? (r() < 0.5 ? '0' : '1') : '-'; return s; };
+            const on = Array.from({ length: 2 + Math.floor(r() * 8) }, () => cube(0.7));
+            const dc = Array.from({ length: 1 + Math.floor(r() * 4) }, () => cube(0.5));
+            const f: SuiteFunction = { name: `o${k}-n${n}`, nvars: n, on, dc };
+            const res = minimize(on.map(cubeFromString), dc.map(cubeFromString), n, { exactMinMs: 500 });
+            const mine = res.cover.map((c) => cubeToString(c, n));
+            expect(checkCover(f, truthTable(f), mine), f.name).toBeNull();
+            const opt = bruteForceOptimum(f);
+            const lits = mine.reduce((s, c) => s + [...c].filter((x) => x !== '-').length, 0);
+            expect({ name: f.name, products: mine.length, literals: lits }).toEqual({ name: f.name, ...opt });
+            expect(res.exact).toBe(true);
+        }
+    });
 });

@@ -42,7 +42,9 @@ export function expand(f: readonly Cube[], nvars: number, target: ExpandTarget):
         if (covered[i]) continue;
         covered[i] = 1;
         const p = target.off
-            ? expandAgainstOff(i, f, covered, target.off, rowMasks!, scratch!, masks, nvars)
+            ? words === 1
+                ? expandAgainstOffWord(i, f, covered, target.off, rowMasks!, scratch!, masks)
+                : expandAgainstOff(i, f, covered, target.off, rowMasks!, scratch!, masks, nvars)
             : expandByContainment(i, f, covered, target.care, masks, nvars);
         for (let j = 0; j < f.length; j++) {
             if (covered[j]) continue;
@@ -266,4 +268,101 @@ function expandByContainment(
         }
     }
     return cur;
+}
+
+/** expandAgainstOff for one-word cubes (up to 16 variables): the same steps on plain numbers. */
+function expandAgainstOffWord(
+    i: number, f: readonly Cube[], covered: Uint8Array, off: readonly Cube[], rowMask: Uint32Array,
+    scratch: { readonly active: Int32Array; readonly hits: Int32Array }, masks: Uint32Array,
+): Cube {
+    const mask = masks[0]!;
+    const c = f[i]![0]!;
+    let cur = c;
+    let free = (c ^ (c >>> 1)) & mask;
+    let lowered = 0;
+    const active = scratch.active;
+    const nRows = off.length;
+    let nActive = 0;
+    for (let r = 0; r < nRows; r++) {
+        const x = c & off[r]![0]!;
+        const m = ~(x | (x >>> 1)) & mask;
+        if (m === 0) throw new Error('expand: a cube of the cover meets the OFF-set');
+        rowMask[r] = m;
+        active[nActive++] = r;
+    }
+    const settleRows = (): void => {
+        let k = 0;
+        let loweredSome = false;
+        for (let a = 0; a < nActive; a++) {
+            const r = active[a]!;
+            const m = rowMask[r]!;
+            if ((m & lowered) !== 0) continue;
+            const y = m & free;
+            if (y === 0) throw new Error('expand: expansion met the OFF-set');
+            if ((y & (y - 1)) === 0) { lowered |= y; free &= ~y; loweredSome = true; continue; }
+            active[k++] = r;
+        }
+        nActive = k;
+        if (!loweredSome) return;
+        k = 0;
+        for (let a = 0; a < nActive; a++) if ((rowMask[active[a]!]! & lowered) === 0) active[k++] = active[a]!;
+        nActive = k;
+    };
+    settleRows();
+    if (nActive > 0) {
+        for (const key of candidatesByDistance(i, f, covered, Uint32Array.of(cur), masks)) {
+            if (nActive === 0) break;
+            const d = f[key % 4194304]![0]!;
+            const diff = d & ~cur;
+            const need = (diff | (diff >>> 1)) & mask;
+            if (need === 0 || (need & lowered) !== 0) continue;
+            const keep = free & ~need;
+            let feasible = true;
+            for (let a = 0; a < nActive; a++) {
+                if ((rowMask[active[a]!]! & keep) === 0) {
+                    feasible = false;
+                    if (a > 0) { const r = active[a]!; active[a] = active[0]!; active[0] = r; }
+                    break;
+                }
+            }
+            if (!feasible) continue;
+            free = keep;
+            cur = (cur | need | (need << 1)) >>> 0;
+            settleRows();
+        }
+    }
+    const counts = new Int32Array(16);
+    while (nActive > 0) {
+        counts.fill(0);
+        for (let a = 0; a < nActive; a++) {
+            let y = rowMask[active[a]!]! & free;
+            while (y !== 0) {
+                const b = y & -y;
+                counts[(31 - Math.clz32(b)) >>> 1]!++;
+                y ^= b;
+            }
+        }
+        let best = 0;
+        for (let v = 1; v < 16; v++) if (counts[v]! > counts[best]!) best = v;
+        const bit = 1 << (best << 1);
+        lowered |= bit;
+        free &= ~bit;
+        settleRows();
+    }
+    cur = (cur | free | (free << 1)) >>> 0;
+    // Make it prime (as in expandAgainstOff).
+    const hits = scratch.hits;
+    for (let r = 0; r < nRows; r++) hits[r] = popcount32(rowMask[r]! & lowered);
+    let y = lowered;
+    while (y !== 0) {
+        const b = y & -y;
+        y ^= b;
+        let needed = false;
+        for (let r = 0; r < nRows; r++) if ((rowMask[r]! & b) !== 0 && hits[r] === 1) { needed = true; break; }
+        if (needed) continue;
+        for (let r = 0; r < nRows; r++) if ((rowMask[r]! & b) !== 0) hits[r]!--;
+        lowered &= ~b;
+        cur = (cur | b | (b << 1)) >>> 0;
+    }
+    return Uint32Array.of(cur);
 }

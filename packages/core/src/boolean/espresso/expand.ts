@@ -352,8 +352,14 @@ function expandAgainstOffWord(
     cur = (cur | free | (free << 1)) >>> 0;
     // Make it prime (as in expandAgainstOff).
     const hits = scratch.hits;
-    for (let r = 0; r < nRows; r++) hits[r] = popcount32(rowMask[r]! & lowered);
-    let y = lowered;
+    // Common case first: every kept variable is the only separator of some OFF cube.
+    let needed = 0;
+    for (let r = 0; r < nRows; r++) {
+        const h = rowMask[r]! & lowered;
+        hits[r] = popcount32(h);
+        if ((h & (h - 1)) === 0) needed |= h;
+    }
+    let y = lowered & ~needed;
     while (y !== 0) {
         const b = y & -y;
         y ^= b;

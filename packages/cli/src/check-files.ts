@@ -172,11 +172,20 @@ function plural(n: number, word: string): string {
 
 const utf8 = new TextDecoder('utf-8', { fatal: true });
 
+/** Bytes read from one file at most; the parser refuses far less (docs/limits.md), this only bounds memory. */
+export const MAX_FILE_BYTES = 16 * 1024 * 1024;
+
 export function readSource(command: string, path: string): SourceFile {
     let bytes: Buffer;
     try {
+        // A FIFO or a device would block readFileSync forever (or never end): only regular files.
+        const stats = statSync(path);
+        if (stats.isDirectory()) throw Object.assign(new Error('is a folder'), { code: 'EISDIR' });
+        if (!stats.isFile()) throw new UsageError(`detent ${command}: ${path}: not a regular file`);
+        if (stats.size > MAX_FILE_BYTES) throw new UsageError(`detent ${command}: ${path}: ${stats.size} bytes; Detent reads files of up to ${MAX_FILE_BYTES} bytes`);
         bytes = readFileSync(path);
     } catch (err) {
+        if (err instanceof UsageError) throw err;
         throw new UsageError(`detent ${command}: ${path}: ${describe(err, 'cannot read file')}`);
     }
     let text: string;

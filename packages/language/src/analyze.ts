@@ -9,6 +9,7 @@ import { createDetentCoreServices } from './detent-module.js';
 import type { Model } from './generated/ast.js';
 import { lowerMachine } from './lowering/lower-machine.js';
 import { prescan } from './syntax/limits.js';
+import { modelLimitFindings } from './syntax/model-limits.js';
 import { LineIndex } from './syntax/positions.js';
 import { type SyntaxError, lexerFindings, parserFindings } from './syntax/syntax-findings.js';
 import type { ParseResult } from 'langium';
@@ -68,6 +69,14 @@ export function analyzeParse(result: ParseResult<AstNode>, text: string, extraSy
         own.forEach((s) => claimed.add(s));
         const findings = [...own.map((s) => s.finding), ...ctx.findings];
         let usable = !ctx.blocked && own.length === 0;
+        if (usable) {
+            // size limits: beyond them the analyses and synthesis would hang (docs/limits.md)
+            const limits = modelLimitFindings(machine);
+            if (limits.length > 0) {
+                findings.push(...limits);
+                usable = false;
+            }
+        }
         const lower = machine.name.toLowerCase();
         const earlier = lower ? names.get(lower) : undefined;
         if (earlier) {

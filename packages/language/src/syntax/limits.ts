@@ -5,6 +5,8 @@
  */
 export const MAX_GUARD_DEPTH = 64;
 export const MAX_NAME_LENGTH = 128;
+/** UTF-16 code units of one file (2 MiB of ASCII). */
+export const MAX_SOURCE_LENGTH = 2 * 1024 * 1024;
 
 export interface LimitViolation {
     readonly offset: number;
@@ -31,6 +33,14 @@ interface Frame {
  * and spaces up to its closing parenthesis, so the rest of the file still parses normally.
  */
 export function prescan(source: string): PrescanResult {
+    if (source.length > MAX_SOURCE_LENGTH) {
+        // Parsing runs at a few hundred kB per second: refuse instead of blocking the CLI or the
+        // editor for minutes. Nothing is parsed, so no offset of the parse result needs to match.
+        return {
+            text: '',
+            violations: [{ offset: 0, length: 0, message: `file has ${source.length} characters; Detent reads files of up to ${MAX_SOURCE_LENGTH} (split it into several files)` }],
+        };
+    }
     const violations: LimitViolation[] = [];
     const blanks: { from: number; to: number; parity?: boolean }[] = [];
     const stack: Frame[] = [];

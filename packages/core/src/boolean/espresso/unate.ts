@@ -231,6 +231,24 @@ function taut(f: readonly Cube[], nvars: number, masks: Uint32Array): boolean {
 
 /** True when every minterm of cube c lies in the cover f. */
 export function coverHasCube(f: readonly Cube[], c: Cube, nvars: number): boolean {
+    const masks = masksFor(nvars);
+    if (masks.length === 1) {
+        // One word: cofactor straight into plain numbers, no cube objects.
+        const mask = masks[0]!;
+        const m = mask & LOW;
+        const p0 = c[0]!;
+        const lit = literalBits(p0, mask);
+        const litMask = (lit | (lit << 1)) >>> 0;
+        const vals = new Uint32Array(f.length);
+        let k = 0;
+        for (let i = 0; i < f.length; i++) {
+            const x0 = f[i]![0]!;
+            const x = x0 & p0;
+            if (((x | (x >>> 1)) & m) !== m) continue;
+            vals[k++] = (x0 | litMask) >>> 0;
+        }
+        return tautWord(vals.subarray(0, k), mask);
+    }
     return isTautology(cubeCofactor(f, c, nvars), nvars);
 }
 

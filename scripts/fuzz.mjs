@@ -123,7 +123,7 @@ const libSeconds = (Date.now() - t0) / 1000;
 const cliBin = join(root, 'packages/cli/bin/detent.js');
 if (!existsSync(join(root, 'packages/cli/dist/detent.mjs'))) spawnSync(process.execPath, [join(root, 'scripts/build.mjs')], { stdio: 'inherit' });
 const tmp = mkdtempSync(join(tmpdir(), 'detent-fuzz-cli-'));
-const sample = inputs.filter((_, i) => i % Math.max(1, Math.floor(inputs.length / (long ? 200 : 40))) === 0 && inputs[i].text.length < 200_000);
+const sample = inputs.filter((_, i) => i % Math.max(1, Math.floor(inputs.length / (long ? 200 : 20))) === 0 && inputs[i].text.length < 200_000);
 let cliPassed = 0;
 for (const [k, input] of sample.entries()) {
     const file = join(tmp, `f${k}.detent`);

@@ -14,7 +14,7 @@ import { dirname, join, relative } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { launchBrowser, log, prepareProfile, removeProfile, sleep, startCodeServer, withTimeout } from './host.mjs';
 import {
-    answerTrust, codeLensTitles, dismissNotifications, hoverText, notifications, openFile, pickQuick, problemCounts, runCommand,
+    answerTrust, codeLensTitles, dismissNotifications, hoverText, notifications, openFile, pickQuick, problemCounts, runCommand, setUserSettings,
     tokenOnLine, waitFor, waitForWorkbench, webviewFrame,
 } from './workbench.mjs';
 
@@ -188,6 +188,24 @@ async function session({ entry, vsix, examples, trust, checks }) {
                 const titles = await waitFor(async () => { const t = (await codeLensTitles(page)).filter((x) => x.trim()); return t.length ? t : undefined; }, 30_000, 'code lenses');
                 log(`code lenses: ${JSON.stringify(titles)}`);
             });
+
+            await checks.run('trusted: detent.encoding = onehot changes the lens to one flip-flop per state', async () => {
+                // LANGUAGE.md § State assignment: binary uses ⌈log2 n⌉ flip-flops, onehot n.
+                if (/\bencoding\s+(?!binary\b)\w+/.test(defectText.replace(/\/\*[\s\S]*?\*\/|\/\/.*$/gm, ''))) throw new Error('the check assumes the defect file uses the default binary encoding');
+                const n = states.length;
+                const binaryFF = Math.max(1, Math.ceil(Math.log2(n)));
+                const lensHas = (re) => async () => (await codeLensTitles(page)).some((t) => re.test(t));
+                await waitFor(lensHas(new RegExp(`\\b${binaryFF} flip-flops?\\b`)), 20_000, `${binaryFF} flip-flop(s) under binary`);
+                await setUserSettings(page, { ...BASE_SETTINGS, 'detent.encoding': 'onehot' });
+                try {
+                    await openFile(page, defect);
+                    await waitFor(lensHas(new RegExp(`\\b${n} flip-flops\\b.*onehot`)), 30_000, `${n} flip-flops (onehot) in the lens`);
+                } finally {
+                    await setUserSettings(page, BASE_SETTINGS);
+                    await openFile(page, defect);
+                }
+                await waitFor(lensHas(new RegExp(`\\b${binaryFF} flip-flops?\\b`)), 30_000, 'the lens back to the declared encoding');
+            }, 90_000);
 
             await checks.run('trusted: the status bar shows the machine cost', async () => {
                 const name = machineName(defectText);

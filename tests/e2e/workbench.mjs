@@ -143,3 +143,15 @@ export async function dismissNotifications(page) {
     await runCommand(page, 'Notifications: Clear All Notifications').catch(() => {});
     await sleep(200);
 }
+
+/** Replaces the user settings through the Settings (JSON) editor, as a person would, saves and closes it. */
+export async function setUserSettings(page, settings) {
+    await runCommand(page, 'Preferences: Open User Settings (JSON)');
+    await page.locator('.tabs-container .tab.active', { hasText: 'settings.json' }).first().waitFor({ timeout: SHORT });
+    await page.locator('.editor-group-container.active .editor-instance .view-lines').first().click();
+    await page.keyboard.press('Control+A');
+    await page.keyboard.insertText(JSON.stringify(settings, null, 2));
+    await page.keyboard.press('Control+S');
+    await page.locator('.tabs-container .tab.active.dirty', { hasText: 'settings.json' }).first().waitFor({ state: 'detached', timeout: SHORT }).catch(() => {});
+    await runCommand(page, 'View: Close Editor');
+}

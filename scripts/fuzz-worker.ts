@@ -26,7 +26,7 @@ export interface PipelineResult {
     readonly exports: number;
 }
 
-const LANGUAGES: readonly ExportLanguage[] = ['verilog', 'systemverilog', 'vhdl', 'c'];
+const LANGUAGES: readonly ExportLanguage[] = ['verilog', 'systemverilog', 'vhdl', 'c', 'dot'];
 const STYLES: readonly ExportStyle[] = ['behavioral', 'structural'];
 
 type Validate = ((data: unknown) => boolean) & { errors?: unknown };
@@ -134,10 +134,10 @@ export function runPipeline(text: string, options: PipelineOptions): PipelineRes
                 if (bad) problems.push(bad);
                 for (const language of LANGUAGES) {
                     for (const style of STYLES) {
-                        if (language === 'c' && style === 'structural') continue;
+                        if ((language === 'c' || language === 'dot') && style === 'structural') continue;
                         step(`export ${language} ${style}`, () => {
                             const files = exportMachine(m.machine, language, {
-                                style, testbench: language !== 'c', statePort: true, sourceName: 'fuzz.detent', sourceText: text,
+                                style, testbench: language !== 'c' && language !== 'dot', statePort: true, sourceName: 'fuzz.detent', sourceText: text,
                                 assignment: result.assignment, synthesis: result,
                             });
                             for (const f of files) {

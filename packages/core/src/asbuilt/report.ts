@@ -10,7 +10,7 @@ import { type SynthesisOptions, SynthesisBudgetError } from '../synthesis/synthe
 import { synthesisBlocker, synthesize } from '../synthesis/run.js';
 import type { SynthesisResult } from '../synthesis/types.js';
 import { BddLimitError } from './bdd.js';
-import { type SafetyAnalysis, explicitSafety, symbolicSafety } from './safety.js';
+import { type CycleStep, type SafetyAnalysis, explicitSafety, symbolicSafety } from './safety.js';
 
 export interface RecoveryReport {
     readonly width: number;
@@ -38,6 +38,14 @@ export interface RecoveryReport {
     readonly skipped?: string;
     /** For resetCode 'stuck': the walk from the all-zero code until it repeats a code. */
     readonly resetWitness?: Witness;
+    /**
+     * For resetCode 'stuck': whether some lock-up cycle lies outside the cleared code's own
+     * trajectory (codes 0…0 can reach while staying unused). false: every lock-up cycle is one the
+     * cleared code runs into, so `reset-code` already reports it; undefined: not decided (budget).
+     */
+    readonly lockupBesidesResetCode?: boolean;
+    /** When lockupBesidesResetCode: a lock-up cycle 0…0 cannot reach. */
+    readonly independentWitness?: Witness;
     readonly elapsedMs: number;
 }
 
@@ -80,8 +88,23 @@ function costDelta(a: SynthesisResult, b: SynthesisResult): RecoveryReport['reco
     };
 }
 
+function stepsWitness(steps: readonly CycleStep[] | undefined): Witness | undefined {
+    return steps ? { cycle: steps.map((s) => ({ code: s.code, inputs: { ...s.inputs } })) } : undefined;
+}
+
 function cycleWitness(a: SafetyAnalysis): Witness | undefined {
-    return a.cycle ? { cycle: a.cycle.map((s) => ({ code: s.code, inputs: { ...s.inputs } })) } : undefined;
+    return stepsWitness(a.cycle);
+}
+
+/** Lock-up cycles besides the cleared code's trajectory (undefined when the budget ran out deciding it). */
+function besidesResetCode(a: SafetyAnalysis, zero: string): { lockupBesidesResetCode?: boolean; independentWitness?: Witness } {
+    try {
+        const steps = a.independentCycle(zero);
+        return steps ? { lockupBesidesResetCode: true, independentWitness: stepsWitness(steps) } : { lockupBesidesResetCode: false };
+    } catch (err) {
+        if (err instanceof BddLimitError) return {};
+        throw err;
+    }
 }
 
 /** The recovery report of a machine (synthesized here) or of a synthesis result. */
@@ -116,7 +139,7 @@ export function recoveryReport(subject: Machine | SynthesisResult, options: AsBu
             recover,
             recoverCostDelta,
             elapsedMs: Date.now() - start,
-            ...(clear && a.zero.stuck ? { resetWitness: { cycle: a.walkFrom('0'.repeat(width)).map((s) => ({ code: s.code, inputs: { ...s.inputs } })) } } : {}),
+            ...(clear && a.zero.stuck ? { resetWitness: stepsWitness(a.walkFrom('0'.repeat(width))), ...besidesResetCode(a, '0'.repeat(width)) } : {}),
         };
     } catch (err) {
         if (!(err instanceof BddLimitError)) throw err;
@@ -198,10 +221,15 @@ export function asBuiltFindings(machine: Machine, options: AsBuiltOptions = {}):
         return findings;
     }
     const ff = `${result.flipflop} flip-flops, ${result.assignment.encoding} encoding`;
-    if (report.lockup) {
+    // One finding per defect: when `reset-code` reports that the cleared code does not recover, a
+    // lock-up cycle the cleared code runs into is that same defect; only a cycle outside its
+    // trajectory is a `lockup` of its own (undecided within the budget: both are reported).
+    const resetStuck = report.resetCode === 'stuck' && machine.reset !== undefined;
+    const lockupWitness = resetStuck && report.lockupBesidesResetCode === true ? report.independentWitness : report.witness;
+    if (report.lockup && !(resetStuck && report.lockupBesidesResetCode === false)) {
         findings.push(finding('lockup',
-            `as built (${ff}) an unused code can stay among unused codes forever: ${cycleText(report.witness)}; add 'recover -> S;' to send unused codes to a state`,
-            machineRange(machine), { witness: report.witness }));
+            `as built (${ff}) an unused code can stay among unused codes forever: ${cycleText(lockupWitness)}; add 'recover -> S;' to send unused codes to a state`,
+            machineRange(machine), { witness: lockupWitness }));
     }
     if (report.resetCode === 'stuck' && machine.reset) {
         findings.push(finding('reset-code',

@@ -44,6 +44,13 @@ export interface SafetyAnalysis {
     latency(code: string): number | undefined;
     /** From a code in Z: steps that stay in Z until a code repeats (the last step's inputs lead back into the walk). */
     walkFrom(code: string): CycleStep[];
+    /**
+     * A lock-up cycle that does not come from `code`'s own trajectory: a cycle of unused codes none
+     * of which can be reached from `code` while staying in Z (undefined when every lock-up cycle is
+     * one `code` can run into). Used to avoid reporting `lockup` again for the cycle `reset-code`
+     * already reports. Symbolic: may throw BddLimitError.
+     */
+    independentCycle(code: string): CycleStep[] | undefined;
 }
 
 const now = (): number => Date.now();
@@ -98,14 +105,14 @@ export function explicitSafety(result: SynthesisResult, deadline = Infinity): Sa
     let zLeft = 0;
     for (let u = 0; u < N; u++) if (inZ[u]) zLeft++;
     const lockup = zLeft > 0;
-    const walk = (from: number, cycleOnly: boolean): CycleStep[] => {
+    const walk = (from: number, cycleOnly: boolean, inSet: Uint8Array = inZ): CycleStep[] => {
         let u = from;
         const seen = new Map<number, number>();
         const path: { code: number; x: number }[] = [];
-        while (!seen.has(u) && inZ[u]) {
+        while (!seen.has(u) && inSet[u]) {
             seen.set(u, path.length);
             let x = 0;
-            while (!inZ[table[u * X + x]!]) x++;
+            while (!inSet[table[u * X + x]!]) x++;
             path.push({ code: u, x });
             u = table[u * X + x]!;
         }
@@ -116,6 +123,35 @@ export function explicitSafety(result: SynthesisResult, deadline = Infinity): Sa
     };
     const cycle = lockup ? walk(inZ.indexOf(1), true) : undefined;
     const zeroLat = lat[0]!;
+    const independentCycle = (code: string): CycleStep[] | undefined => {
+        // Codes `code` can reach inside Z (closed under Z-successors, so every cycle lies wholly inside or outside).
+        const from = parseInt(code, 2);
+        const reach = new Uint8Array(N);
+        const stack: number[] = [];
+        if (inZ[from]) { reach[from] = 1; stack.push(from); }
+        while (stack.length > 0) {
+            const u = stack.pop()!;
+            for (let x = 0; x < X; x++) {
+                const v = table[u * X + x]!;
+                if (inZ[v] && !reach[v]) { reach[v] = 1; stack.push(v); }
+            }
+        }
+        // Greatest fixpoint again, on Z without that trajectory.
+        const rest = new Uint8Array(N);
+        let any = false;
+        for (let u = 0; u < N; u++) if (inZ[u] && !reach[u]) { rest[u] = 1; any = true; }
+        for (let changed = any; changed;) {
+            changed = false;
+            for (let u = 0; u < N; u++) {
+                if (!rest[u]) continue;
+                let stays = false;
+                for (let x = 0; x < X && !stays; x++) if (rest[table[u * X + x]!]) stays = true;
+                if (!stays) { rest[u] = 0; changed = true; }
+            }
+        }
+        const start = rest.indexOf(1);
+        return start < 0 ? undefined : walk(start, true, rest);
+    };
     return {
         method: 'explicit',
         width: w,
@@ -129,6 +165,7 @@ export function explicitSafety(result: SynthesisResult, deadline = Infinity): Sa
         canStayUnused: (code) => inZ[parseInt(code, 2)] === 1,
         latency: (code) => { const l = lat[parseInt(code, 2)]!; return l >= 0 ? l : undefined; },
         walkFrom: (code) => walk(parseInt(code, 2), false),
+        independentCycle,
     };
 }
 
@@ -221,15 +258,15 @@ export function symbolicSafety(result: SynthesisResult, options: SymbolicOptions
         return undefined;
     };
     const zPrimed = bdd.rename(z, toPrimed);
-    const walk = (from: string, cycleOnly: boolean): CycleStep[] => {
+    const walk = (from: string, cycleOnly: boolean, set: BddNode = z, setPrimed: BddNode = zPrimed): CycleStep[] => {
         let u = from;
         const seen = new Map<string, number>();
         const path: CycleStep[] = [];
-        while (!seen.has(u) && path.length < 4096 && bdd.evaluate(z, bitsOf(u))) {
+        while (!seen.has(u) && path.length < 4096 && bdd.evaluate(set, bitsOf(u))) {
             seen.set(u, path.length);
             const values = new Int8Array(nI + 2 * w).fill(-1);
             for (let i = 0; i < w; i++) values[qLevel(i)] = u[u.length - 1 - i] === '1' ? 1 : 0;
-            let rel = zPrimed;
+            let rel = setPrimed;
             for (let i = 0; i < w; i++) rel = bdd.and(rel, bdd.restrict(relation[i]!, values));
             const sat = bdd.satOne(rel)!;
             path.push({ code: u, inputs: inputsByName(machine, (v) => sat[v]!) });
@@ -250,6 +287,36 @@ export function symbolicSafety(result: SynthesisResult, options: SymbolicOptions
     }
     const zero = '0'.repeat(w);
     const zeroBits = bitsOf(zero);
+    // Image of a set of codes: ∃q ∃x. S(q) ∧ Π_i (q'_i ↔ f_i), renamed back to q.
+    const fromPrimed = new Int32Array(nI + 2 * w);
+    for (let l = 0; l < fromPrimed.length; l++) fromPrimed[l] = l;
+    for (let i = 0; i < w; i++) fromPrimed[pLevel(i)] = qLevel(i);
+    const presentMask = new Uint8Array(nI + 2 * w);
+    for (let v = 0; v < nI; v++) presentMask[v] = 1;
+    for (let i = 0; i < w; i++) presentMask[qLevel(i)] = 1;
+    const post = (s: BddNode): BddNode => {
+        let acc = s;
+        for (let i = 0; i < w - 1; i++) acc = bdd.and(acc, relation[i]!);
+        return bdd.rename(bdd.andExists(acc, relation[w - 1]!, presentMask), fromPrimed);
+    };
+    const independentCycle = (code: string): CycleStep[] | undefined => {
+        if (!bdd.evaluate(z, bitsOf(code))) return cycle;
+        let reach = bdd.and(z, codeBdd(code, qLevel));
+        for (;;) {
+            const grown = bdd.or(reach, bdd.and(z, post(reach)));
+            if (grown === reach) break;
+            reach = grown;
+        }
+        let rest = bdd.and(z, bdd.not(reach));
+        for (;;) {
+            const next = bdd.and(rest, pre(rest));
+            if (next === rest) break;
+            rest = next;
+        }
+        if (rest === Bdd.FALSE) return undefined;
+        const start = bdd.satOne(rest)!;
+        return walk(codeText((i) => start[qLevel(i)]!, w), true, rest, bdd.rename(rest, toPrimed));
+    };
     return {
         method: 'symbolic',
         width: w,
@@ -263,5 +330,6 @@ export function symbolicSafety(result: SynthesisResult, options: SymbolicOptions
         canStayUnused: (code) => bdd.evaluate(z, bitsOf(code)),
         latency: latencyOf,
         walkFrom: (code) => walk(code, false),
+        independentCycle,
     };
 }

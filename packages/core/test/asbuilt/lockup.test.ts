@@ -161,7 +161,10 @@ describe('as-built findings', () => {
                 errors++;
             } else fine++;
             const lock = all.filter((f) => f.code === 'lockup');
-            expect(lock.length).toBe(oracle.lockup ? 1 : 0);
+            // With reset-code raised, a lock-up of the cleared code's own trajectory is not reported again
+            // (reset-lockup.test.ts checks exactly when); otherwise lockup iff the oracle finds one.
+            if (want) expect(lock.length).toBeLessThanOrEqual(oracle.lockup ? 1 : 0);
+            else expect(lock.length).toBe(oracle.lockup ? 1 : 0);
         }
         expect(errors).toBeGreaterThan(5);
         expect(fine).toBeGreaterThan(5);

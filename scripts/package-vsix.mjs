@@ -16,9 +16,11 @@ import { inflateRawSync } from 'node:zlib';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 
+class PackagingError extends Error {}
+
+/** Throws, so the staging folder is still removed (`finally`) before the process exits 1. */
 function fail(msg) {
-    process.stderr.write(`[package-vsix] ${msg}\n`);
-    process.exit(1);
+    throw new PackagingError(msg);
 }
 
 function runNode(args, cwd, timeoutMs) {
@@ -126,4 +128,11 @@ function main() {
 }
 
 const isMain = process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.url);
-if (isMain) main();
+if (isMain) {
+    try {
+        main();
+    } catch (e) {
+        process.stderr.write(`[package-vsix] ${e instanceof PackagingError ? e.message : e instanceof Error ? e.stack : String(e)}\n`);
+        process.exit(1);
+    }
+}

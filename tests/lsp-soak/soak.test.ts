@@ -125,4 +125,30 @@ describe('LSP soak', () => {
             expect(last, `last third max ${mb(last)} MB vs middle third max ${mb(middle)} MB`).toBeLessThanOrEqual(1.5 * middle + 30 * 1048576);
         }
     }, 180_000);
+
+    test('hostile documents: the server answers, every diagnostic range lies inside the document', async () => {
+        const docs: [string, string][] = [
+            ['parens', `machine P {\n    input a;\n    state S0 { when ${'('.repeat(10_000)}a${')'.repeat(10_000)} -> S0; otherwise stay; }\n}\n`],
+            ['nots', `machine P {\n    input a;\n    state S0 { when ${'!'.repeat(10_000)}a -> S0; }\n}\n`],
+            ['huge', `machine H {\n${'    // generated filler\n'.repeat(110_000)}}\n`],
+            ['xor', `machine X {\n    input ${Array.from({ length: 40 }, (_, i) => `a${i}`).join(', ')};\n    state S0 { when ${Array.from({ length: 40 }, (_, i) => `a${i}`).join(' ^ ')} -> S0; otherwise stay; }\n}\n`],
+            ['nul-surrogate-crlf', 'machine N\0 {\r\n    input a;\r\n    state S0 { when a -> S0; } // \uD800\r\n}\r\n\uDFFF'],
+        ];
+        for (const [name, text] of docs) {
+            const uri = `file:///soak/${name}.detent`;
+            const t0 = Date.now();
+            const ds = await session.open(uri, text);
+            const lines = text.split(/\r\n|\r|\n/);
+            for (const d of ds) {
+                for (const p of [d.range.start, d.range.end]) {
+                    expect(p.line, `${name}: ${d.message}`).toBeLessThan(lines.length);
+                    expect(p.character, `${name}: ${d.message}`).toBeLessThanOrEqual(lines[p.line]!.length);
+                }
+            }
+            expect(ds.some((d) => d.severity === 1), `${name} has an error`).toBe(true);
+            await session.request('textDocument/hover', { textDocument: { uri }, position: { line: 0, character: 9 } });
+            process.stdout.write(`lsp soak: ${name} (${text.length} chars) diagnosed in ${Date.now() - t0} ms: ${ds.length} diagnostics\n`);
+        }
+        expect(session.process.exitCode).toBeNull();
+    }, 180_000);
 });

@@ -11,6 +11,7 @@ import {
 } from '@detent/core';
 import * as ast from '../generated/ast.js';
 import { lowerMachine } from '../lowering/lower-machine.js';
+import { modelLimitFindings } from '../syntax/model-limits.js';
 import type { DetentServices } from '../detent-module.js';
 import type { DetentSettingsStore } from './settings.js';
 
@@ -54,7 +55,8 @@ export class DetentDocumentModel {
             const text = document.textDocument.getText();
             return root.machines.map((node, index) => {
                 const { machine, ctx } = lowerMachine(node, text);
-                return { node, index, machine, blocked: ctx.blocked };
+                // past a size limit (docs/limits.md) synthesis and tables would hang the server
+                return { node, index, machine, blocked: ctx.blocked || modelLimitFindings(machine).length > 0 };
             });
         });
     }

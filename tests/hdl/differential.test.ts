@@ -10,7 +10,7 @@ import { describe, expect, it, beforeAll } from 'vitest';
 import { join } from 'node:path';
 import { exportMachine, type ExportLanguage, type ExportStyle } from '@detent/core';
 import {
-    type CorpusMachine, type StimulusCycle, cHarness, exampleMachines, awkwardMachines, cMain, compareDumps, expectedDump, mulberry32, parseDump, randomCorpus,
+    type CorpusMachine, type StimulusCycle, cHarness, exampleMachines, awkwardMachines, narrowBusMachines, cMain, compareDumps, expectedDump, mulberry32, parseDump, randomCorpus,
     icarusMessages, randomStimulus, run, scratchDir, toolsAvailable, verilogDumpBench, vhdlDumpBench, vhdlTop, writeAll,
 } from './support.js';
 
@@ -25,7 +25,7 @@ describe.runIf(toolsAvailable(TOOLS))('exports behave like the core simulator, c
     let totalCycles = 0;
 
     beforeAll(() => {
-        corpus = [...exampleMachines().map((e) => ({ machine: e.machine, synth: e.synth })), ...randomCorpus(COUNT, 424242), ...awkwardMachines(8, 606)];
+        corpus = [...exampleMachines().map((e) => ({ machine: e.machine, synth: e.synth })), ...randomCorpus(COUNT, 424242), ...awkwardMachines(8, 606), ...narrowBusMachines(6, 616)];
         const rng = mulberry32(99);
         for (const c of corpus) {
             const s = randomStimulus(c.machine, rng, CYCLES);

@@ -9,7 +9,7 @@
  */
 import { describe, expect, it, beforeAll } from 'vitest';
 import { exportMachine, type ExportStyle } from '@detent/core';
-import { type CorpusMachine, awkwardMachines, exampleMachines, randomCorpus, run, scratchDir, toolsAvailable, writeAll } from './support.js';
+import { type CorpusMachine, awkwardMachines, narrowBusMachines, exampleMachines, randomCorpus, run, scratchDir, toolsAvailable, writeAll } from './support.js';
 
 const TOOLS = ['verilator', 'yosys'];
 
@@ -17,7 +17,7 @@ describe.runIf(toolsAvailable(TOOLS))('Verilog/SystemVerilog exports: Verilator 
     let corpus: CorpusMachine[] = [];
     beforeAll(() => {
         const examples = exampleMachines();
-        corpus = [...examples.map((e) => ({ machine: e.machine, synth: e.synth })), ...randomCorpus(200, 777, 'L'), ...awkwardMachines(8, 707)];
+        corpus = [...examples.map((e) => ({ machine: e.machine, synth: e.synth })), ...randomCorpus(200, 777, 'L'), ...awkwardMachines(8, 707), ...narrowBusMachines(6, 717)];
         expect(corpus.length).toBeGreaterThanOrEqual(200);
     }, 120_000);
 

@@ -10,7 +10,7 @@ import { fileURLToPath } from 'node:url';
 import { parseDetent } from '@detent/language';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import type { EncodingKind, FlipFlopKind, Machine, SynthesisResult } from '@detent/core';
+import type { EncodingKind, FlipFlopKind, Guard, Machine, SynthesisResult } from '@detent/core';
 import { cField, clearResetState, synthesize, createSimulator } from '@detent/core';
 import { int, mulberry32, randomMachine, type Rng } from '../../packages/core/test/support/random-machine.js';
 
@@ -163,6 +163,31 @@ export function awkwardMachines(count: number, seed: number): CorpusMachine[] {
             inputs: m.inputs.map((i, k) => ({ ...i, name: inNames[k] ?? i.name })),
             outputs: m.outputs.map((o, k) => ({ ...o, name: outNames[k] ?? o.name })),
             states: m.states.map((st, k) => ({ ...st, name: k === 0 ? 'CLEARED' : k === 1 ? 'state_d_1' : st.name })),
+        };
+        return { machine, synth: synthesize(machine, { encoding: c.synth.assignment.encoding === 'auto' ? 'binary' : undefined, budgetMs: 30 }) };
+    });
+}
+
+/** Machines whose 1-bit inputs and outputs are all declared as 1-bit buses (`input [1] a;`): `[0:0]` ports. */
+export function narrowBusMachines(count: number, seed: number): CorpusMachine[] {
+    const toBit = (g: Guard): Guard => {
+        switch (g.kind) {
+            case 'input': return { kind: 'bit', input: g.input, bit: 0, range: g.range };
+            case 'not': return { ...g, operand: toBit(g.operand) };
+            case 'and': case 'or': case 'xor': return { ...g, operands: g.operands.map(toBit) };
+            default: return g;
+        }
+    };
+    return randomCorpus(count, seed, 'N').map((c) => {
+        const m = c.machine;
+        const machine: Machine = {
+            ...m,
+            inputs: m.inputs.map((i) => ({ ...i, isBus: true })),
+            outputs: m.outputs.map((o) => ({ ...o, isBus: true })),
+            states: m.states.map((st) => ({
+                ...st,
+                transitions: st.transitions.map((t) => ({ ...t, guard: toBit(t.guard) })),
+            })),
         };
         return { machine, synth: synthesize(machine, { encoding: c.synth.assignment.encoding === 'auto' ? 'binary' : undefined, budgetMs: 30 }) };
     });

@@ -17,6 +17,8 @@ export interface ExactLimits {
     readonly maxPrimes: number;
     readonly maxRows: number;
     readonly deadline: number;
+    /** Deterministic bound on the covering search (see solveCover); Infinity for none. */
+    readonly maxWork?: number;
 }
 
 export interface ExactOutcome {
@@ -57,9 +59,12 @@ export function exactCover(
         if (!keys.has(key)) { keys.add(key); rows.push(cols); }
     };
     for (const c of onSet) addRow(atomic(c, primes, nvars) ? c : firstMinterm(c, nvars));
+    // One work budget for all rounds of the lazy-row loop.
+    let workLeft = limits.maxWork ?? Infinity;
     for (let round = 0; ; round++) {
         if (rows.length > limits.maxRows) return null;
-        const sol = solveCover({ rows, columns: primes.length, cost }, upper, limits.deadline);
+        const sol = solveCover({ rows, columns: primes.length, cost }, upper, limits.deadline, workLeft);
+        workLeft -= sol.work;
         if (sol.columns === null) return { cover: null, proven: sol.complete };
         const chosen = sol.columns.map((j) => primes[j]!);
         let missing = 0;

@@ -24,6 +24,8 @@ export interface CoverSolution {
     readonly cost: number;
     /** True when the search finished: nothing cheaper than `cost` (or the bound) exists. */
     readonly complete: boolean;
+    /** Work spent (same units as maxWork). */
+    readonly work: number;
 }
 
 class OutOfTime extends Error {}
@@ -41,7 +43,11 @@ interface Table {
 }
 
 
-export function solveCover(p: CoverProblem, upperBound: number, deadline: number): CoverSolution {
+/**
+ * `maxWork` bounds the search deterministically (in bit-table word operations, counted per
+ * reduction pass); `deadline` (CPU ms, clock.ts) is a safety net only.
+ */
+export function solveCover(p: CoverProblem, upperBound: number, deadline: number, maxWork = Infinity): CoverSolution {
     const nCols = p.columns;
     const colRows: number[][] = Array.from({ length: nCols }, () => []);
     p.rows.forEach((cols, r) => { for (const c of cols) colRows[c]!.push(r); });
@@ -49,6 +55,7 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
     const localRow = new Int32Array(p.rows.length).fill(-1);
     let best: number[] | null = null;
     let bestCost = upperBound;
+    let work = 0;
 
     const build = (rows: number[], cols: number[]): Table => {
         cols.forEach((c, i) => { localCol[c] = i; });
@@ -91,6 +98,12 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
             const t = build(rows, cols);
             const nr = t.rows.length;
             const nc = t.cols.length;
+            const cw = (nc + 31) >>> 5;
+            const rw = (nr + 31) >>> 5;
+            // Per pass: building the table, both dominance checks, and a fixed cost per node
+            // (allocation, sorting, the bound) that small tables are dominated by.
+            work += 2000 + 16 * (nr + nc) + nr * cw + nc * rw + Math.min(effort, nr * nr * cw) + Math.min(effort, nc * nc * rw);
+            if (work > maxWork) throw new OutOfTime();
             if (nr === 0) return t;
             // Essential columns.
             const taken = new Uint8Array(nc);
@@ -225,9 +238,9 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
     const chosenRoot: number[] = [];
     try {
         search(p.rows.map((_, i) => i), Array.from({ length: nCols }, (_, j) => j), chosenRoot, 0, 0);
-        return { columns: best, cost: bestCost, complete: true };
+        return { columns: best, cost: bestCost, complete: true, work };
     } catch (e) {
-        if (e instanceof OutOfTime) return { columns: best, cost: bestCost, complete: false };
+        if (e instanceof OutOfTime) return { columns: best, cost: bestCost, complete: false, work };
         throw e;
     }
 }

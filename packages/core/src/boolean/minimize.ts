@@ -24,10 +24,12 @@ export interface MinimizeOptions {
     readonly maxPrimes?: number;
     /** Largest covering table (rows) the exact method accepts in 'auto' (default 20000). */
     readonly maxRows?: number;
-    /** In 'auto', the exact search may take this many times the heuristic's time (default 0.5)… */
-    readonly exactFactor?: number;
-    /** …but at least this many milliseconds (default 15). */
-    readonly exactMinMs?: number;
+    /**
+     * In 'auto', the work the exact covering search may do, in bit-table word operations
+     * (default 8 million, about 10–30 ms). A work bound rather than a time bound, so that
+     * the same function always gets the same cover (as-built analyses synthesize twice).
+     */
+    readonly exactWork?: number;
 }
 
 export interface MinimizeResult {
@@ -37,6 +39,7 @@ export interface MinimizeResult {
 }
 
 const DEFAULT_BUDGET_MS = 2000;
+const DEFAULT_EXACT_WORK = 8_000_000;
 
 /** Minimizes f with ON-set `on` and don't-care set `dc` (both covers over `nvars` variables). */
 export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number, options: MinimizeOptions = {}): MinimizeResult {
@@ -51,7 +54,6 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
     // The heuristic gets most of the budget only when exact work is not wanted.
     const heuristicDeadline = method === 'heuristic' ? deadline : start + Math.max(1, budget * 0.5);
     const h = espressoHeuristic(onCubes, dcCubes, nvars, { deadline: heuristicDeadline });
-    const heuristicMs = cpuNow() - start;
     let cover = h.cover;
     if (method === 'heuristic') return { cover, exact: false };
     const hc = coverCost(cover, nvars);
@@ -61,12 +63,11 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
     const outcome = exactCover(onCubes, h.target.care, nvars, weight, upper, {
         maxPrimes: big ? 1_000_000 : options.maxPrimes ?? 4000,
         maxRows: big ? 10_000_000 : options.maxRows ?? 20000,
-        // In 'auto' the exact search gets time in proportion to the heuristic's (it is an
-        // improvement step); 'exact' may use the whole budget.
+        // The budget is a safety net; in 'auto' the search is bounded by work (deterministic).
+        deadline,
         // When even the OFF-set was too large to compute (one-hot style covers), the covering
-        // problem is too: the exact step then only gets its minimum time.
-        deadline: big ? deadline : Math.min(deadline, cpuNow() + Math.max(options.exactMinMs ?? 15,
-            h.target.off === null ? 0 : (options.exactFactor ?? 0.5) * heuristicMs)),
+        // problem is too: a tenth of the work then.
+        maxWork: big ? Infinity : (options.exactWork ?? DEFAULT_EXACT_WORK) / (h.target.off === null ? 10 : 1),
     });
     if (outcome === null) return { cover, exact: false };
     if (outcome.cover && cheaper(coverCost(outcome.cover, nvars), hc)) cover = outcome.cover;

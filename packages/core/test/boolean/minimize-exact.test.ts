@@ -99,9 +99,9 @@ describe('minimize is exactly minimal on small functions (exhaustive oracle)', (
     it(`${suite.length} functions of ≤ 8 variables: proven, and as cheap as the exhaustive optimum`, () => {
         let proven = 0;
         for (const f of suite) {
-            // 'auto' (the default method) with room for the proof: by default the exact step only
-            // gets max(30 ms, the heuristic's time), which a cold JIT can exhaust.
-            const r = minimize(f.on.map(cubeFromString), f.dc.map(cubeFromString), f.nvars, { budgetMs: 5000, exactMinMs: 500 });
+            // 'auto' (the default method) with room for the proof: by default the exact step's
+            // work is bounded (exactWork) to keep the heuristic-plus-exact time small.
+            const r = minimize(f.on.map(cubeFromString), f.dc.map(cubeFromString), f.nvars, { budgetMs: 5000, exactWork: 2e9 });
             const mine = r.cover.map((c) => cubeToString(c, f.nvars));
             expect(checkCover(f, truthTable(f), mine), f.name).toBeNull();
             const opt = bruteForceOptimum(f);
@@ -120,7 +120,7 @@ describe('minimize is exactly minimal on small functions (exhaustive oracle)', (
             const on = Array.from({ length: 2 + Math.floor(r() * 8) }, () => cube(0.7));
             const dc = Array.from({ length: 1 + Math.floor(r() * 4) }, () => cube(0.5));
             const f: SuiteFunction = { name: `o${k}-n${n}`, nvars: n, on, dc };
-            const res = minimize(on.map(cubeFromString), dc.map(cubeFromString), n, { exactMinMs: 500 });
+            const res = minimize(on.map(cubeFromString), dc.map(cubeFromString), n, { exactWork: 2e9 });
             const mine = res.cover.map((c) => cubeToString(c, n));
             expect(checkCover(f, truthTable(f), mine), f.name).toBeNull();
             const opt = bruteForceOptimum(f);

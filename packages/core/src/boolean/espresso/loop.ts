@@ -41,7 +41,8 @@ export function espressoHeuristic(on: readonly Cube[], dc: readonly Cube[], nvar
     let f = singleCubeContainment(on, words);
     const care = singleCubeContainment([...f, ...dc], words);
     const maxOff = options.maxOffCubes ?? Math.max(2000, 20 * care.length);
-    const off = complementWithin(care, nvars, maxOff, Math.min(options.deadline, cpuNow() + 200));
+    // The cube-count budget decides (deterministic); the time cap is a safety net.
+    const off = complementWithin(care, nvars, maxOff, Math.min(options.deadline, cpuNow() + 1000));
     const target: ExpandTarget = { off, care };
     if (f.length === 0) return { cover: [], target };
     f = expand(f, nvars, target);

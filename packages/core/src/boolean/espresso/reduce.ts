@@ -5,11 +5,31 @@
  */
 import type { Cube } from '../cube.js';
 import { cubeLiteralCount } from './expand.js';
-import { complementSupercube, cubeCofactor } from './unate.js';
+import { complementSupercube, cubeCofactor, masksFor } from './unate.js';
+import { scccWord } from './word.js';
 
 /** The maximal reduction of f[i] against the other cubes of f and dc, or null when redundant. */
 export function reduceCube(f: readonly Cube[], i: number, dc: readonly Cube[], nvars: number): Cube | null {
     const c = f[i]!;
+    const masks = masksFor(nvars);
+    if (masks.length === 1) {
+        // One word: cofactor into plain numbers and take the complement's supercube there.
+        const mask = masks[0]!;
+        const m = mask & 0x55555555;
+        const p0 = c[0]!;
+        const lit = (p0 ^ (p0 >>> 1)) & m;
+        const litMask = (lit | (lit << 1)) >>> 0;
+        const vals = new Uint32Array(f.length + dc.length);
+        let k = 0;
+        const take = (x0: number): void => {
+            const x = x0 & p0;
+            if (((x | (x >>> 1)) & m) === m) vals[k++] = (x0 | litMask) >>> 0;
+        };
+        for (let j = 0; j < f.length; j++) if (j !== i) take(f[j]![0]!);
+        for (const d of dc) take(d[0]!);
+        const sw = scccWord(vals.subarray(0, k), mask);
+        return sw === -1 ? null : Uint32Array.of((p0 & sw) >>> 0);
+    }
     const cof: Cube[] = [];
     cubeCofactor(i === 0 ? f.slice(1) : i === f.length - 1 ? f.slice(0, i) : [...f.slice(0, i), ...f.slice(i + 1)], c, nvars, cof);
     cubeCofactor(dc, c, nvars, cof);

@@ -28,6 +28,9 @@ export function registerDetentRequests(connection: Connection, shared: LangiumSh
     const model = detent.lsp.DetentDocumentModel;
 
     async function documentFor(uri: string, token: CancellationToken): Promise<LangiumDocument> {
+        // A request that arrives while the workspace is still loading must not create the document itself:
+        // the loader would then fail on "already present" and no diagnostics would ever be published.
+        await shared.workspace.WorkspaceManager.ready;
         const parsed = URI.parse(uri);
         if (documents.hasDocument(parsed)) {
             await builder.waitUntil(DocumentState.Linked, parsed, token);

@@ -2,7 +2,7 @@
  * Two-level minimization entry point (issue 3).
  *
  * `minimize` runs the Espresso-style heuristic (espresso/loop.ts) first, then — when the
- * prime count and covering table stay within limits and time is left — the exact method
+ * prime count, covering table and search work stay within limits — the exact method
  * (exact.ts) seeded with the heuristic cover as upper bound; when that search completes, the
  * cover is proven minimal: fewest products, then fewest literals.
  */
@@ -18,7 +18,10 @@ export { minimizeMulti, type MultiFunction, type MultiResult } from './multi-out
 export interface MinimizeOptions {
     /** 'auto': exact when tractable, heuristic beyond. */
     readonly method?: 'auto' | 'exact' | 'heuristic';
-    /** Wall-clock budget for one function, in milliseconds (default 2000). */
+    /**
+     * Safety budget for one function, in milliseconds of CPU time (default 2000; clock.ts).
+     * Results depend on it only when it runs out — the normal bounds are counts.
+     */
     readonly budgetMs?: number;
     /** Largest number of primes the exact method accepts in 'auto' (default 4000). */
     readonly maxPrimes?: number;

@@ -3,7 +3,7 @@
  * MINIMIZED excitation equations and the flip-flop characteristic equations
  * (D: Q+ = D; T: Q+ = Q⊕T; JK: Q+ = J·Q' + K'·Q; SR: Q+ = S + R'·Q).
  */
-import { FREE, ONE, getVar } from '../boolean/cube.js';
+import { FREE, ONE, containsMinterm, getVar } from '../boolean/cube.js';
 import type { Cube } from '../boolean/cube.js';
 import type { Machine } from '../model/machine.js';
 import { characteristic, excitationInputs } from '../synthesis/excitation.js';
@@ -74,4 +74,14 @@ export function codeText(bit: (i: number) => number, width: number): string {
     let s = '';
     for (let i = width - 1; i >= 0; i--) s += bit(i) ? '1' : '0';
     return s;
+}
+
+/**
+ * The next code of one code under one input, from the minimized covers (any width: no packing).
+ * `code` and `inputs` are bit arrays (code bit i = q_i; inputs in variable order).
+ */
+export function nextCodeAt(result: SynthesisResult, code: readonly (0 | 1)[], inputs: readonly (0 | 1)[]): (0 | 1)[] {
+    const minterm = [...inputs, ...code];
+    return excitationCovers(result).map((ports, i) =>
+        characteristic(result.flipflop, code[i]!, ports.map((cover) => (cover.some((c) => containsMinterm(c, minterm)) ? 1 : 0))));
 }

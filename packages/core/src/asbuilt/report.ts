@@ -2,7 +2,8 @@
  * The recovery report (what the CLI and the editor show) and the as-built findings:
  * `lockup`, `reset-code`, `async-input`, and `limit` when an analysis was skipped.
  */
-import type { Machine, SourceRange } from '../model/machine.js';
+import type { Guard, Machine, SourceRange } from '../model/machine.js';
+import { ceilLog2, fixedAssignment } from '../synthesis/encoding.js';
 import { type Finding, type Witness, finding } from '../model/finding.js';
 import { inputOffsets } from '../model/variables.js';
 import { FREE, getVar } from '../boolean/cube.js';
@@ -10,6 +11,7 @@ import { type SynthesisOptions, SynthesisBudgetError } from '../synthesis/synthe
 import { synthesisBlocker, synthesize } from '../synthesis/run.js';
 import type { SynthesisResult } from '../synthesis/types.js';
 import { BddLimitError } from './bdd.js';
+import { codeText, inputsByName, nextCodeAt } from './next-code.js';
 import { type CycleStep, type SafetyAnalysis, explicitSafety, symbolicSafety } from './safety.js';
 
 export interface RecoveryReport {
@@ -198,14 +200,84 @@ export function asyncInputFindings(result: SynthesisResult): Finding[] {
     return findings;
 }
 
+function guardInputs(g: Guard, into: Set<number>): void {
+    switch (g.kind) {
+        case 'const': return;
+        case 'input': case 'bit': case 'compare': into.add(g.input); return;
+        case 'not': guardInputs(g.operand, into); return;
+        default: for (const o of g.operands) guardInputs(o, into);
+    }
+}
+
+/**
+ * What the as-built analyses can possibly find, decided before any synthesis:
+ * - lock-up (and with it reset-code) needs unused codes left to the logic — more codes than states
+ *   and no `recover` (with `recover` every unused code is specified to go to the target on the next
+ *   clock, which the minimizer guard enforces; the latency is the recovery report's business, no finding);
+ * - async-input needs an `async` input that some guard reads and at least two flip-flops.
+ */
+export function asBuiltNeeds(machine: Machine, options: AsBuiltOptions = {}): { lockup: boolean; asyncInput: boolean } {
+    const encoding = options.synthesis?.encoding ?? machine.encoding;
+    const n = machine.states.length;
+    const fixed = encoding === 'auto' ? undefined : fixedAssignment(machine, encoding);
+    const width = fixed ? fixed.width : Math.max(1, ceilLog2(n));
+    const distinct = fixed ? new Set(fixed.codes).size : n;
+    const recover = machine.recover !== undefined && !options.synthesis?.ignoreRecover;
+    const lockup = 2 ** width > distinct && !recover;
+    const read = new Set<number>();
+    for (const s of machine.states) for (const t of s.transitions) guardInputs(t.guard, read);
+    const registeredBits = machine.outputs.reduce((a, o) => a + (o.registered ? o.width : 0), 0);
+    const asyncInput = width + registeredBits >= 2 && machine.inputs.some((input, i) => input.async && read.has(i));
+    return { lockup, asyncInput };
+}
+
+function lockupFinding(machine: Machine, ff: string, witness: Witness | undefined): Finding {
+    return finding('lockup',
+        `as built (${ff}) an unused code can stay among unused codes forever: ${cycleText(witness)}; add 'recover -> S;' to send unused codes to a state`,
+        machineRange(machine), { witness });
+}
+
+/**
+ * An unused code among 0…0 and 1…1 that the as-built logic keeps with all inputs 0 (a one-step
+ * lock-up cycle), as a witness; undefined when neither does.
+ */
+export function selfHoldingCode(result: SynthesisResult): Witness | undefined {
+    const width = result.assignment.width;
+    const used = new Set(result.assignment.codes);
+    const zeroInputs = new Array<0 | 1>(result.inputCount).fill(0);
+    for (const bit of [0, 1] as const) {
+        const code = new Array<0 | 1>(width).fill(bit);
+        const text = codeText((i) => code[i]!, width);
+        if (used.has(text)) continue;
+        const next = nextCodeAt(result, code, zeroInputs);
+        if (next.every((b) => b === bit)) return { cycle: [{ code: text, inputs: inputsByName(result.machine, () => 0) }] };
+    }
+    return undefined;
+}
+
+/** Input variables (cube positions) of the `async` inputs. */
+function asyncVariables(machine: Machine): number[] {
+    const offsets = inputOffsets(machine);
+    const vars: number[] = [];
+    machine.inputs.forEach((input, i) => { if (input.async) for (let b = 0; b < input.width; b++) vars.push(offsets[i]! + b); });
+    return vars;
+}
+
 /** Findings for one machine from its synthesized logic. */
 export function asBuiltFindings(machine: Machine, options: AsBuiltOptions = {}): Finding[] {
     if (synthesisBlocker(machine)) return []; // the model errors are reported by the design analyses / lowering
+    const needs = asBuiltNeeds(machine, options);
+    if (!needs.lockup && !needs.asyncInput) return []; // nothing as built can differ from the design: no synthesis
     // Keystroke budget: a short auto search and short minimizer runs (the as-built meaning is exact for
     // whatever covers come out; only their cost is less polished than `detent synth`'s).
+    // Only the equations an analysis reads are built (combinational outputs never; registered-output
+    // D inputs only for async-input); each equation is minimized alone, so these are the same covers.
     const synthesisBudget = options.synthesisBudgetMs ?? 400;
     const synthesisOptions: SynthesisOptions = {
-        budgetMs: 100, minimizeBudgetMs: 10, quick: true, deadline: Date.now() + synthesisBudget, ...options.synthesis,
+        budgetMs: 100, minimizeBudgetMs: 10, quick: true, deadline: Date.now() + synthesisBudget,
+        equations: needs.asyncInput ? 'flipflops' : 'state',
+        functionOnly: { dontCares: needs.lockup, literalVars: needs.asyncInput ? asyncVariables(machine) : [] },
+        ...options.synthesis,
     };
     let result: SynthesisResult;
     try {
@@ -214,23 +286,32 @@ export function asBuiltFindings(machine: Machine, options: AsBuiltOptions = {}):
         if (!(err instanceof SynthesisBudgetError)) throw err;
         return [finding('limit', `as-built analyses (lockup, reset-code, async-input) skipped: synthesis took longer than ${synthesisBudget} ms; \`detent synth\` runs them without this limit`, machineRange(machine))];
     }
-    const findings: Finding[] = [...asyncInputFindings(result)];
+    const findings: Finding[] = needs.asyncInput ? [...asyncInputFindings(result)] : [];
+    if (!needs.lockup) return findings;
+    const ff = `${result.flipflop} flip-flops, ${result.assignment.encoding} encoding`;
+    const zeroCode = '0'.repeat(result.assignment.width);
+    const resetQuestion = machine.reset?.target === 'clear' && !result.assignment.codes.includes(zeroCode);
+    if (!resetQuestion) {
+        // Lock-up exists iff some unused code can stay unused forever; an unused code that holds itself
+        // under some input proves it at once (one-hot/one-cold logic holds its none-hot code: every
+        // product carries a hot literal). The fixpoint analysis is only needed when no such code is found.
+        const holding = selfHoldingCode(result);
+        if (holding) {
+            findings.push(lockupFinding(machine, ff, holding));
+            return findings;
+        }
+    }
     const report = recoveryReport(result, { budgetMs: 300, recoverCost: false, ...options, synthesis: synthesisOptions });
     if (report.method === 'skipped') {
         findings.push(finding('limit', `lock-up and reset-code analysis skipped: ${report.skipped}`, machineRange(machine)));
         return findings;
     }
-    const ff = `${result.flipflop} flip-flops, ${result.assignment.encoding} encoding`;
     // One finding per defect: when `reset-code` reports that the cleared code does not recover, a
     // lock-up cycle the cleared code runs into is that same defect; only a cycle outside its
     // trajectory is a `lockup` of its own (undecided within the budget: both are reported).
     const resetStuck = report.resetCode === 'stuck' && machine.reset !== undefined;
     const lockupWitness = resetStuck && report.lockupBesidesResetCode === true ? report.independentWitness : report.witness;
-    if (report.lockup && !(resetStuck && report.lockupBesidesResetCode === false)) {
-        findings.push(finding('lockup',
-            `as built (${ff}) an unused code can stay among unused codes forever: ${cycleText(lockupWitness)}; add 'recover -> S;' to send unused codes to a state`,
-            machineRange(machine), { witness: lockupWitness }));
-    }
+    if (report.lockup && !(resetStuck && report.lockupBesidesResetCode === false)) findings.push(lockupFinding(machine, ff, lockupWitness));
     if (report.resetCode === 'stuck' && machine.reset) {
         findings.push(finding('reset-code',
             `'reset … clear' loads code ${'0'.repeat(report.width)}, which is no state, and as built (${ff}) it does not recover`

@@ -38,7 +38,7 @@ export function synthesize(machine: Machine, options: SynthesisOptions = {}): Sy
     const codeOptions = { share: options.share, minimizeBudgetMs: options.minimizeBudgetMs, ignoreRecover: options.ignoreRecover, quick: options.quick, deadline: options.deadline };
     if (encoding === 'auto') return autoSynthesize(machine, flipflop, { ...codeOptions, budgetMs: options.budgetMs });
     const assignment = fixedAssignment(machine, encoding)!;
-    return synthesizeWithAssignment(synthesisContext(machine, assignment.width), assignment, flipflop, codeOptions);
+    return synthesizeWithAssignment(synthesisContext(machine, assignment.width), assignment, flipflop, { ...codeOptions, equations: options.equations, functionOnly: options.functionOnly });
 }
 
 export interface EncodingComparisonRow {

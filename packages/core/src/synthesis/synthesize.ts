@@ -42,7 +42,19 @@ export interface SynthesisOptions {
     readonly quick?: boolean;
     /** Date.now() after which synthesis throws SynthesisBudgetError. */
     readonly deadline?: number;
+    /** As-built analyses: skip minimizations that cannot change their findings (see FunctionOnly). */
+    readonly functionOnly?: FunctionOnly;
+    /**
+     * Which equations to build (fixed encodings only; `auto` always builds all, since outputs take part
+     * in its cost): 'all' (default); 'flipflops' — excitation and registered-output D inputs; 'state' —
+     * excitation only. The as-built analyses use this: lock-up needs only the excitation logic. Every
+     * equation is minimized on its own, so the ones built are the same as in a full synthesis; `cost`
+     * then counts only them.
+     */
+    readonly equations?: EquationSelection;
 }
+
+export type EquationSelection = 'all' | 'flipflops' | 'state';
 
 /** A region of the code space with one specified behaviour per input piece. */
 interface Region {
@@ -139,6 +151,29 @@ export interface CodesOptions {
     readonly deadline?: number;
     readonly minimizeBudgetMs?: number;
     readonly ignoreRecover?: boolean;
+    /** See SynthesisOptions.equations. */
+    readonly equations?: EquationSelection;
+    /** See SynthesisOptions.functionOnly. */
+    readonly functionOnly?: FunctionOnly;
+}
+
+/**
+ * As-built analyses only: which minimizations can change what the analyses see. A function with no
+ * don't-cares is the same function however it is minimized, so it keeps its ON-set cover unless its
+ * literals matter (its ON or DC cubes mention one of `literalVars` — async-input reads the literals).
+ * With `dontCares: false` even functions with don't-cares skip the minimizer unless their literals
+ * matter (nothing reads the function's value on its don't-cares).
+ */
+export interface FunctionOnly {
+    readonly dontCares: boolean;
+    readonly literalVars: readonly number[];
+}
+
+function needsMinimizing(f: FunctionOnly | undefined, on: readonly Cube[], dc: readonly Cube[]): boolean {
+    if (!f) return true;
+    if (f.dontCares && dc.length > 0) return true;
+    const mentions = (c: Cube) => f.literalVars.some((v) => getVar(c, v) !== FREE);
+    return on.some(mentions) || dc.some(mentions);
 }
 
 /** Synthesizes the machine under a given assignment (the core of `synthesize` and of the auto search). */
@@ -206,9 +241,11 @@ export function synthesizeWithAssignment(ctx: SynthesisContext, assignment: Stat
     const specs: EquationSpec[] = [];
     const ports = excitationInputs(flipflop);
     for (let i = 0; i < width; i++) ports.forEach((p, port) => specs.push({ name: `${p}${i}`, role: 'excitation', stateBit: i, port }));
-    bitsOut.forEach((b, k) => specs.push({
-        name: b.name, role: b.registered ? 'registered-output' : 'output', output: b.output, outputBit: b.bit, flatOutput: k,
-    }));
+    const selection = options.equations ?? 'all';
+    bitsOut.forEach((b, k) => {
+        if (selection === 'state' || (selection === 'flipflops' && !b.registered)) return;
+        specs.push({ name: b.name, role: b.registered ? 'registered-output' : 'output', output: b.output, outputBit: b.bit, flatOutput: k });
+    });
 
     // Per equation: groups (one per region, split on q_i where the region leaves it open).
     const equations: Equation[] = [];
@@ -260,6 +297,7 @@ export function synthesizeWithAssignment(ctx: SynthesisContext, assignment: Stat
                 const inputDc = removeContained(g.dc);
                 let inputCover: Cube[];
                 if (tautology(inputOn, nvars)) inputCover = [universe(nvars)];
+                else if (!needsMinimizing(options.functionOnly, inputOn, inputDc)) { inputCover = inputOn; exact = false; }
                 else {
                     const m = minimize(inputOn, inputDc, nvars, { budgetMs: options.minimizeBudgetMs });
                     exact &&= m.exact;
@@ -284,6 +322,7 @@ export function synthesizeWithAssignment(ctx: SynthesisContext, assignment: Stat
             const dcCover = removeContained(dc);
             if (onCover.length === 0) cover = [];
             else if (tautology(onCover, nvars)) cover = [universe(nvars)];
+            else if (!needsMinimizing(options.functionOnly, onCover, dcCover)) { cover = onCover; exact = false; }
             else {
                 const m = minimize(onCover, dcCover, nvars, { budgetMs: options.minimizeBudgetMs });
                 exact = m.exact;

@@ -214,7 +214,10 @@ describe('one-hot at 64 states', () => {
 
 describe('limit', () => {
     it('reports a skipped lock-up analysis as `limit`', () => {
-        const machine = indexingTable(20, 'D');
+        // With `reset … clear` the fixpoint analysis must run (reset-code asks about code 0…0); without
+        // it, the one-hot none-hot code holding itself proves the lock-up before any BDD is built.
+        const base = indexingTable(20, 'D');
+        const machine = { ...base, reset: { ...base.reset!, target: 'clear' as const } };
         const findings = asBuiltFindings(machine, { method: 'symbolic', maxNodes: 50 });
         const limit = findings.filter((f) => f.code === 'limit');
         expect(limit).toHaveLength(1);

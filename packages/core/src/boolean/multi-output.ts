@@ -104,8 +104,11 @@ export function minimizeMulti(functions: readonly MultiFunction[], nvars: number
             if (cols.length > 0 && !rowKeys.has(k)) { rowKeys.add(k); rows.push(cols); }
         };
         functions.forEach((fn, f) => fn.on.forEach((c) => { if (!isEmpty(c, nvars)) addRow(f, firstMinterm(c, nvars)); }));
-        for (let round = 0; round < 50 && cpuNow() < start + budget; round++) {
-            const sol = solveCover({ rows, columns: cands.length, cost }, upper, start + budget);
+        // Bounded by counted work (deterministic, like minimize's exact step); the budget is a safety net.
+        let workLeft = options.exactWork ?? 16_000_000;
+        for (let round = 0; round < 50 && cpuNow() < start + budget && workLeft > 0; round++) {
+            const sol = solveCover({ rows, columns: cands.length, cost }, upper, start + budget, workLeft);
+            workLeft -= sol.work;
             if (sol.columns === null) break;
             let missing = 0;
             functions.forEach((fn, f) => {

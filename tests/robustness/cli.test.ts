@@ -5,7 +5,7 @@
  */
 import { beforeAll, describe, expect, test } from 'vitest';
 import { spawn, spawnSync } from 'node:child_process';
-import { chmodSync, existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { chmodSync, existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { confinedPath, writeAtomic } from '../../packages/cli/src/commands/export.js';
@@ -183,6 +183,16 @@ describe('export writes safely', () => {
         rmSync(join(dir, `.Keep.v.${process.pid}.tmp`), { recursive: true });
         writeAtomic('export', target, 'new contents\n');
         expect(readFileSync(target, 'utf8')).toBe('new contents\n');
+    });
+
+    test('a symlink planted at the temporary name does not redirect the write', () => {
+        const dir = mkdtempSync(join(work, 'link-'));
+        const victim = join(dir, 'victim.txt');
+        writeFileSync(victim, 'precious\n');
+        symlinkSync(victim, join(dir, `.Out.v.${process.pid}.tmp`));
+        writeAtomic('export', join(dir, 'Out.v'), 'generated\n');
+        expect(readFileSync(victim, 'utf8')).toBe('precious\n');
+        expect(readFileSync(join(dir, 'Out.v'), 'utf8')).toBe('generated\n');
     });
 
     test('an export killed at any moment leaves the old file or the whole new one', async () => {

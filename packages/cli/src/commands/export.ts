@@ -110,7 +110,10 @@ export function checkClobber(command: string, paths: readonly string[], force: b
 export function writeAtomic(command: string, path: string, text: string): void {
     const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.tmp`);
     try {
-        writeFileSync(tmp, text);
+        // A symlink planted at the temporary name must not redirect the write: remove whatever is
+        // there (unlink removes a link, not its target) and create the file exclusively.
+        try { unlinkSync(tmp); } catch { /* nothing left over */ }
+        writeFileSync(tmp, text, { flag: 'wx' });
         renameSync(tmp, path);
     } catch (err) {
         try { unlinkSync(tmp); } catch { /* already gone */ }

@@ -101,3 +101,14 @@ describe('machine limits', () => {
         expect(check('machine W {\n    input [65536] v;\n    state S0 { when v[65535] -> S0; otherwise stay; }\n}\n').findings.some((f) => f.code === 'width')).toBe(true);
     });
 });
+
+describe('parser recovery', () => {
+    test('a nameless machine left by recovery is not usable (found by the fuzz suite: it was exported as ".v")', () => {
+        // from fuzz input line-delete+3:examples/defects/no-return.detent (seed 777)
+        const text = 'machine : {\nmachine : {\n    reset rst -> Empty;\n    input fill;\n    output valve;\n    state Empty { when fill -> Full; otherwise stay; }\n    state Full  { emit valve;  stay; }\n}\n';
+        const parsed = parseDetent(text);
+        expect(parsed.machines.length).toBeGreaterThan(0);
+        for (const m of parsed.machines) if (m.machine.name === '') expect(m.usable).toBe(false);
+        expect(parsed.findings.some((f) => f.code === 'syntax')).toBe(true);
+    });
+});

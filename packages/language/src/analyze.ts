@@ -68,7 +68,8 @@ export function analyzeParse(result: ParseResult<AstNode>, text: string, extraSy
         const own = syntax.filter((s) => !claimed.has(s) && s.offset >= start && (s.offset < end || !closed));
         own.forEach((s) => claimed.add(s));
         const findings = [...own.map((s) => s.finding), ...ctx.findings];
-        let usable = !ctx.blocked && own.length === 0;
+        // a nameless machine is what parser recovery leaves after an error another machine claimed
+        let usable = !ctx.blocked && own.length === 0 && machine.name !== '';
         if (usable) {
             // size limits: beyond them the analyses and synthesis would hang (docs/limits.md)
             const limits = modelLimitFindings(machine);

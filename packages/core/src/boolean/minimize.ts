@@ -7,8 +7,8 @@
  * cover is proven minimal: fewest products, then fewest literals.
  */
 import { cpuNow } from './clock.js';
-import { type Cube, isEmpty, wordsFor } from './cube.js';
-import { cheaper, coverCost, espressoHeuristic } from './espresso/loop.js';
+import { type Cube, isEmpty, wordMask, wordsFor } from './cube.js';
+import { cheaper, coverCost, espressoHeuristic, essentialPrimes } from './espresso/loop.js';
 import { singleCubeContainment } from './espresso/unate.js';
 import { dontCaresOutside } from './dont-care.js';
 import { exactCover, productWeight } from './exact.js';
@@ -59,6 +59,11 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
     const h = espressoHeuristic(onCubes, dcCubes, nvars, { deadline: heuristicDeadline });
     let cover = h.cover;
     if (method === 'heuristic') return { cover, exact: false };
+    // Every minimal cover contains every essential prime; a cover made only of essential primes
+    // is therefore the one minimal cover (fewest products and fewest literals), and the exact
+    // step could only confirm it. Primality is re-checked against the OFF-set rather than assumed.
+    if (h.target.off !== null && allPrime(cover, h.target.off, nvars)
+        && essentialPrimes(cover, dcCubes, nvars).length === cover.length) return { cover, exact: true };
     const hc = coverCost(cover, nvars);
     const weight = productWeight(nvars, hc.products);
     const upper = hc.products * weight + hc.literals;
@@ -75,4 +80,30 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
     if (outcome === null) return { cover, exact: false };
     if (outcome.cover && cheaper(coverCost(outcome.cover, nvars), hc)) cover = outcome.cover;
     return { cover, exact: outcome.proven };
+}
+
+/** True when no literal of any cube of f can be dropped without meeting the OFF-set `off`. */
+function allPrime(f: readonly Cube[], off: readonly Cube[], nvars: number): boolean {
+    const words = wordsFor(nvars);
+    for (const c of f) {
+        for (let v = 0; v < nvars; v++) {
+            const w = v >>> 4;
+            const shift = (v & 15) * 2;
+            if (((c[w]! >>> shift) & 3) === 3) continue;
+            // c with v raised meets an OFF cube o iff every variable field of c ∩ o (v free) is non-empty.
+            let blocked = false;
+            for (const o of off) {
+                let meets = true;
+                for (let k = 0; k < words && meets; k++) {
+                    let x = (c[k]! & o[k]!) >>> 0;
+                    if (k === w) x = (x | ((o[k]! >>> shift) & 3) << shift) >>> 0;
+                    const m = wordMask(nvars, k) & 0x55555555;
+                    if (((x | (x >>> 1)) & m) !== m) meets = false;
+                }
+                if (meets) { blocked = true; break; }
+            }
+            if (!blocked) return false;
+        }
+    }
+    return true;
 }

@@ -255,12 +255,12 @@ export function selfHoldingCode(result: SynthesisResult): Witness | undefined {
     return undefined;
 }
 
-/** Input variables (cube positions) of the `async` inputs. */
-function asyncVariables(machine: Machine): number[] {
+/** Input variables (cube positions) of each `async` input. */
+function asyncVariables(machine: Machine): number[][] {
     const offsets = inputOffsets(machine);
-    const vars: number[] = [];
-    machine.inputs.forEach((input, i) => { if (input.async) for (let b = 0; b < input.width; b++) vars.push(offsets[i]! + b); });
-    return vars;
+    const groups: number[][] = [];
+    machine.inputs.forEach((input, i) => { if (input.async) groups.push(Array.from({ length: input.width }, (_, b) => offsets[i]! + b)); });
+    return groups;
 }
 
 /** Findings for one machine from its synthesized logic. */
@@ -276,7 +276,7 @@ export function asBuiltFindings(machine: Machine, options: AsBuiltOptions = {}):
     const synthesisOptions: SynthesisOptions = {
         budgetMs: 100, minimizeBudgetMs: 10, quick: true, deadline: Date.now() + synthesisBudget,
         equations: needs.asyncInput ? 'flipflops' : 'state',
-        functionOnly: { dontCares: needs.lockup, literalVars: needs.asyncInput ? asyncVariables(machine) : [] },
+        functionOnly: { dontCares: needs.lockup, literalInputs: needs.asyncInput ? asyncVariables(machine) : [] },
         ...options.synthesis,
     };
     let result: SynthesisResult;

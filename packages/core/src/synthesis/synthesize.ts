@@ -160,20 +160,39 @@ export interface CodesOptions {
 /**
  * As-built analyses only: which minimizations can change what the analyses see. A function with no
  * don't-cares is the same function however it is minimized, so it keeps its ON-set cover unless its
- * literals matter (its ON or DC cubes mention one of `literalVars` — async-input reads the literals).
- * With `dontCares: false` even functions with don't-cares skip the minimizer unless their literals
- * matter (nothing reads the function's value on its don't-cares).
+ * literals matter. Literals matter for each input of `literalInputs` (async-input asks whether any
+ * bit of it appears): an input the function's cubes never mention appears in no cover; an input one of
+ * whose bits is necessary (an ON point whose neighbour across that bit is OFF, within one code)
+ * appears in every valid cover, the minimized one and the ON-set alike; only otherwise does the
+ * answer depend on the minimizer. With `dontCares: false` functions with don't-cares follow the same
+ * rule (nothing reads the function's value on its don't-cares).
  */
 export interface FunctionOnly {
     readonly dontCares: boolean;
-    readonly literalVars: readonly number[];
+    /** Input variables of each input whose literals matter. */
+    readonly literalInputs: readonly (readonly number[])[];
 }
 
-function needsMinimizing(f: FunctionOnly | undefined, on: readonly Cube[], dc: readonly Cube[]): boolean {
+/** Input-side ON and don't-care covers of one code (or code cube) of a function. */
+interface CodeSpec { readonly on: readonly Cube[]; readonly dc: readonly Cube[] }
+
+function flipVar(c: Cube, v: number): Cube {
+    const f = getVar(c, v);
+    return f === FREE ? c : withVar(c, v, f === ONE ? ZERO : ONE);
+}
+
+function needsMinimizing(f: FunctionOnly | undefined, on: readonly Cube[], dc: readonly Cube[], codes: readonly CodeSpec[], nvars: number): boolean {
     if (!f) return true;
     if (f.dontCares && dc.length > 0) return true;
-    const mentions = (c: Cube) => f.literalVars.some((v) => getVar(c, v) !== FREE);
-    return on.some(mentions) || dc.some(mentions);
+    for (const vars of f.literalInputs) {
+        const mentions = (c: Cube) => vars.some((v) => getVar(c, v) !== FREE);
+        if (!on.some(mentions) && !dc.some(mentions)) continue;
+        // Necessary bit: within one code, the ON set moved across the bit leaves ON ∪ DC.
+        const necessary = vars.some((v) => codes.some((g) => g.on.length > 0
+            && !coverContainsCover([...g.on, ...g.dc], g.on.map((c) => flipVar(c, v)), nvars)));
+        if (!necessary) return true;
+    }
+    return false;
 }
 
 /** Synthesizes the machine under a given assignment (the core of `synthesize` and of the auto search). */
@@ -297,7 +316,7 @@ export function synthesizeWithAssignment(ctx: SynthesisContext, assignment: Stat
                 const inputDc = removeContained(g.dc);
                 let inputCover: Cube[];
                 if (tautology(inputOn, nvars)) inputCover = [universe(nvars)];
-                else if (!needsMinimizing(options.functionOnly, inputOn, inputDc)) { inputCover = inputOn; exact = false; }
+                else if (!needsMinimizing(options.functionOnly, inputOn, inputDc, [{ on: inputOn, dc: inputDc }], nvars)) { inputCover = inputOn; exact = false; }
                 else {
                     const m = minimize(inputOn, inputDc, nvars, { budgetMs: options.minimizeBudgetMs });
                     exact &&= m.exact;
@@ -318,11 +337,13 @@ export function synthesizeWithAssignment(ctx: SynthesisContext, assignment: Stat
                 dc.push(...cubesAnd(g.dc, g.cube, nvars));
             }
             dc.push(...unusedDontCare);
-            const onCover = removeContained(on);
-            const dcCover = removeContained(dc);
+            // As-built only: decided on the raw covers, before the quadratic containment pass.
+            const skip = options.functionOnly !== undefined && !needsMinimizing(options.functionOnly, on, dc, groups, nvars);
+            const onCover = skip ? on : removeContained(on);
+            const dcCover = skip ? dc : removeContained(dc);
             if (onCover.length === 0) cover = [];
+            else if (skip) { cover = onCover; exact = false; }
             else if (tautology(onCover, nvars)) cover = [universe(nvars)];
-            else if (!needsMinimizing(options.functionOnly, onCover, dcCover)) { cover = onCover; exact = false; }
             else {
                 const m = minimize(onCover, dcCover, nvars, { budgetMs: options.minimizeBudgetMs });
                 exact = m.exact;

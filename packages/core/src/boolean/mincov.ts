@@ -36,8 +36,10 @@ const EPS = 1e-9;
 interface Table {
     rows: number[];      // global row ids
     cols: number[];      // global column ids
-    rowBits: Uint32Array[]; // per local row, over local columns
-    colBits: Uint32Array[]; // per local column, over local rows
+    cw: number;          // words per row bitset
+    rw: number;          // words per column bitset
+    rowBits: Uint32Array; // row i over local columns at [i * cw, (i + 1) * cw) — one array, not one per row
+    colBits: Uint32Array; // column j over local rows at [j * rw, (j + 1) * rw)
     rowCount: Int32Array;
     colCount: Int32Array;
 }
@@ -62,27 +64,28 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
         rows.forEach((r, i) => { localRow[r] = i; });
         const cw = (cols.length + 31) >>> 5;
         const rw = (rows.length + 31) >>> 5;
-        const rowBits = rows.map(() => new Uint32Array(cw));
-        const colBits = cols.map(() => new Uint32Array(rw));
+        const rowBits = new Uint32Array(rows.length * cw);
+        const colBits = new Uint32Array(cols.length * rw);
         const rowCount = new Int32Array(rows.length);
         const colCount = new Int32Array(cols.length);
         for (let i = 0; i < rows.length; i++) {
             for (const c of p.rows[rows[i]!]!) {
                 const j = localCol[c]!;
                 if (j < 0) continue;
-                rowBits[i]![j >>> 5]! |= 1 << (j & 31);
-                colBits[j]![i >>> 5]! |= 1 << (i & 31);
+                rowBits[i * cw + (j >>> 5)]! |= 1 << (j & 31);
+                colBits[j * rw + (i >>> 5)]! |= 1 << (i & 31);
                 rowCount[i]!++;
                 colCount[j]!++;
             }
         }
         for (const c of cols) localCol[c] = -1;
         for (const r of rows) localRow[r] = -1;
-        return { rows, cols, rowBits, colBits, rowCount, colCount };
+        return { rows, cols, cw, rw, rowBits, colBits, rowCount, colCount };
     };
 
-    const subset = (a: Uint32Array, b: Uint32Array): boolean => {
-        for (let i = 0; i < a.length; i++) if ((a[i]! & ~b[i]!) !== 0) return false;
+    /** Bits of x[a…a+len) all within x[b…b+len). */
+    const subset = (x: Uint32Array, a: number, b: number, len: number): boolean => {
+        for (let i = 0; i < len; i++) if ((x[a + i]! & ~x[b + i]!) !== 0) return false;
         return true;
     };
 
@@ -112,8 +115,9 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
                 const k = t.rowCount[i]!;
                 if (k === 0) return null;
                 if (k === 1) {
-                    const bits = t.rowBits[i]!;
-                    for (let w = 0; w < bits.length; w++) if (bits[w] !== 0) { taken[w * 32 + 31 - Math.clz32(bits[w]! & -bits[w]!)] = 1; break; }
+                    const bits = t.rowBits;
+                    const o = i * cw;
+                    for (let w = 0; w < cw; w++) if (bits[o + w] !== 0) { taken[w * 32 + 31 - Math.clz32(bits[o + w]! & -bits[o + w]!)] = 1; break; }
                     anyEssential = true;
                 }
             }
@@ -124,8 +128,9 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
                     if (!taken[j]) { keptCols.push(t.cols[j]!); continue; }
                     chosen.push(t.cols[j]!);
                     acc.cost += p.cost[t.cols[j]!]!;
-                    const b = t.colBits[j]!;
-                    for (let i = 0; i < nr; i++) if ((b[i >>> 5]! >>> (i & 31)) & 1) coveredRows[i] = 1;
+                    const b = t.colBits;
+                    const o = j * rw;
+                    for (let i = 0; i < nr; i++) if ((b[o + (i >>> 5)]! >>> (i & 31)) & 1) coveredRows[i] = 1;
                 }
                 rows = t.rows.filter((_, i) => !coveredRows[i]);
                 cols = keptCols;
@@ -135,21 +140,20 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
             // Row dominance: a row containing another row's columns is implied by it.
             const order = Array.from({ length: nr }, (_, i) => i).sort((a, b) => t.rowCount[a]! - t.rowCount[b]! || a - b);
             const dropRow = new Uint8Array(nr);
-            if (nr * nr * t.rowBits[0]!.length <= effort) {
+            if (nr * nr * cw <= effort) {
                 for (let x = 0; x < nr; x++) {
                     const a = order[x]!;
                     if (dropRow[a]) continue;
-                    const A = t.rowBits[a]!;
                     for (let y = x + 1; y < nr; y++) {
                         const b = order[y]!;
                         if (dropRow[b]) continue;
-                        if (subset(A, t.rowBits[b]!)) { dropRow[b] = 1; changed = true; }
+                        if (subset(t.rowBits, a * cw, b * cw, cw)) { dropRow[b] = 1; changed = true; }
                     }
                 }
             }
             // Column dominance: a column whose rows lie within a no-dearer column's is not needed.
             const dropCol = new Uint8Array(nc);
-            if (nc * nc * t.colBits[0]!.length <= effort) {
+            if (nc * nc * rw <= effort) {
                 const byCount = Array.from({ length: nc }, (_, j) => j).sort((a, b) => t.colCount[b]! - t.colCount[a]! || a - b);
                 for (let a = 0; a < nc; a++) {
                     if (t.colCount[a] === 0) { dropCol[a] = 1; changed = true; continue; }
@@ -161,7 +165,7 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
                         if (cb > ca + EPS) continue;
                         // Twins (same rows, same cost): keep the first.
                         if (t.colCount[b] === t.colCount[a] && cb >= ca - EPS && b > a) continue;
-                        if (subset(t.colBits[a]!, t.colBits[b]!)) { dropCol[a] = 1; changed = true; break; }
+                        if (subset(t.colBits, a * rw, b * rw, rw)) { dropCol[a] = 1; changed = true; break; }
                     }
                 }
             }
@@ -175,17 +179,19 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
     const lowerBound = (t: Table): number => {
         const nr = t.rows.length;
         const order = Array.from({ length: nr }, (_, i) => i).sort((a, b) => t.rowCount[a]! - t.rowCount[b]! || a - b);
-        const used = new Uint32Array(t.rowBits[0]!.length);
+        const cw = t.cw;
+        const used = new Uint32Array(cw);
         let bound = 0;
         for (const i of order) {
-            const bits = t.rowBits[i]!;
+            const bits = t.rowBits;
+            const o = i * cw;
             let clash = false;
-            for (let w = 0; w < bits.length; w++) if ((bits[w]! & used[w]!) !== 0) { clash = true; break; }
+            for (let w = 0; w < cw; w++) if ((bits[o + w]! & used[w]!) !== 0) { clash = true; break; }
             if (clash) continue;
             let m = Infinity;
-            for (let w = 0; w < bits.length; w++) {
-                used[w] = (used[w]! | bits[w]!) >>> 0;
-                let y = bits[w]!;
+            for (let w = 0; w < cw; w++) {
+                used[w] = (used[w]! | bits[o + w]!) >>> 0;
+                let y = bits[o + w]!;
                 while (y !== 0) {
                     const b = y & -y;
                     const c = p.cost[t.cols[w * 32 + 31 - Math.clz32(b)]!]!;
@@ -214,18 +220,19 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
         // not take the columns of earlier ones.
         let row = 0;
         for (let i = 1; i < t.rows.length; i++) if (t.rowCount[i]! < t.rowCount[row]!) row = i;
-        const bits = t.rowBits[row]!;
+        const bits = t.rowBits;
         const options: number[] = [];
-        for (let w = 0; w < bits.length; w++) {
-            let y = bits[w]!;
+        for (let w = 0; w < t.cw; w++) {
+            let y = bits[row * t.cw + w]!;
             while (y !== 0) { const b = y & -y; options.push(w * 32 + 31 - Math.clz32(b)); y ^= b; }
         }
         options.sort((a, b) => p.cost[t.cols[a]!]! - p.cost[t.cols[b]!]! || t.colCount[b]! - t.colCount[a]! || a - b);
         const excluded = new Uint8Array(t.cols.length);
         for (const j of options) {
             const c = t.cols[j]!;
-            const colRowsHere = t.colBits[j]!;
-            const childRows = t.rows.filter((_, i) => ((colRowsHere[i >>> 5]! >>> (i & 31)) & 1) === 0);
+            const colRowsHere = t.colBits;
+            const o = j * t.rw;
+            const childRows = t.rows.filter((_, i) => ((colRowsHere[o + (i >>> 5)]! >>> (i & 31)) & 1) === 0);
             const childCols = t.cols.filter((_, k) => k !== j && !excluded[k]);
             const base = chosen.length;
             chosen.push(c);

@@ -62,8 +62,8 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
     // Every minimal cover contains every essential prime; a cover made only of essential primes
     // is therefore the one minimal cover (fewest products and fewest literals), and the exact
     // step could only confirm it. Primality is re-checked against the OFF-set rather than assumed.
-    if (h.target.off !== null && allPrime(cover, h.target.off, nvars)
-        && essentialPrimes(cover, dcCubes, nvars).length === cover.length) return { cover, exact: true };
+    if (h.target.off !== null && essentialPrimes(cover, dcCubes, nvars).length === cover.length
+        && allPrime(cover, h.target.off, nvars)) return { cover, exact: true };
     const hc = coverCost(cover, nvars);
     const weight = productWeight(nvars, hc.products);
     const upper = hc.products * weight + hc.literals;

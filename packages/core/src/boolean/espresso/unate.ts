@@ -7,7 +7,7 @@
  */
 import { cpuNow } from '../clock.js';
 import { type Cube, ONE, ZERO, universe, wordMask, wordsFor } from '../cube.js';
-import { WordBudgetExceeded, complementWord, scccWord, tautWord } from './word.js';
+import { WordBudgetExceeded, complementWord, scccWord, tautWord, tautWordFill } from './word.js';
 
 const LOW = 0x55555555;
 
@@ -239,15 +239,16 @@ export function coverHasCube(f: readonly Cube[], c: Cube, nvars: number): boolea
         const p0 = c[0]!;
         const lit = literalBits(p0, mask);
         const litMask = (lit | (lit << 1)) >>> 0;
-        const vals = new Uint32Array(f.length);
-        let k = 0;
-        for (let i = 0; i < f.length; i++) {
-            const x0 = f[i]![0]!;
-            const x = x0 & p0;
-            if (((x | (x >>> 1)) & m) !== m) continue;
-            vals[k++] = (x0 | litMask) >>> 0;
-        }
-        return tautWord(vals.subarray(0, k), mask);
+        return tautWordFill(f.length, mask, (out, start) => {
+            let k = start;
+            for (let i = 0; i < f.length; i++) {
+                const x0 = f[i]![0]!;
+                const x = x0 & p0;
+                if (((x | (x >>> 1)) & m) !== m) continue;
+                out[k++] = (x0 | litMask) >>> 0;
+            }
+            return k - start;
+        });
     }
     return isTautology(cubeCofactor(f, c, nvars), nvars);
 }

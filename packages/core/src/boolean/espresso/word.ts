@@ -51,15 +51,61 @@ function cofactorWord(vals: Uint32Array, len: number, bit: number, value: 0 | 1)
     return out.subarray(0, k);
 }
 
+/**
+ * Scratch stack for the tautology recursion: each call owns the region [start, start + len)
+ * and pushes its cofactors above it, so the recursion allocates nothing (it ran hot enough in
+ * EXPAND / IRREDUNDANT / REDUCE for its small arrays to keep the garbage collector busy).
+ * Grows by copying; callers re-read `arena` after every recursive call.
+ */
+let arena = new Uint32Array(1 << 14);
+let top = 0;
+
+function reserve(n: number): void {
+    if (top + n <= arena.length) return;
+    const a = new Uint32Array(Math.max(arena.length * 2, top + n));
+    a.set(arena.subarray(0, top));
+    arena = a;
+}
+
 export function tautWord(vals: Uint32Array, mask: number): boolean {
-    const len = vals.length;
+    const base = top;
+    reserve(vals.length);
+    arena.set(vals, base);
+    top = base + vals.length;
+    try {
+        return tautAt(base, vals.length, mask);
+    } finally {
+        top = base;
+    }
+}
+
+/**
+ * Tautology of the one-word cover `values(i)` for i < len, pushed onto the scratch stack by
+ * the caller's loop (`fill` returns how many it wrote at `arena[start…]`): coverHasCube's
+ * cofactor goes straight there, without an intermediate array.
+ */
+export function tautWordFill(capacity: number, mask: number, fill: (out: Uint32Array, start: number) => number): boolean {
+    const base = top;
+    reserve(capacity);
+    const len = fill(arena, base);
+    top = base + len;
+    try {
+        return tautAt(base, len, mask);
+    } finally {
+        top = base;
+    }
+}
+
+/** Same algorithm as the array version had: unate reduction, then the most binate variable, majority phase first. */
+function tautAt(start: number, len: number, mask: number): boolean {
     if (len === 0) return false;
     const lm = mask & LOW;
+    let a = arena;
     let anyZero = 0;
     let anyOne = 0;
     let volume = 0;
-    for (let i = 0; i < len; i++) {
-        const x = vals[i]!;
+    for (let i = start; i < start + len; i++) {
+        const x = a[i]!;
         if (x === mask) return true;
         const z = x & ~(x >>> 1) & lm;
         const o = (x >>> 1) & ~x & lm;
@@ -70,19 +116,56 @@ export function tautWord(vals: Uint32Array, mask: number): boolean {
     if (volume < 1 - 1e-9) return false;
     const unate = (anyZero ^ anyOne) & lm;
     if (unate !== 0) {
-        const g = new Uint32Array(len);
-        let k = 0;
-        for (let i = 0; i < len; i++) {
-            const x = vals[i]!;
-            if ((((x ^ (x >>> 1)) & unate)) === 0) g[k++] = x;
+        // Compact in place: this region belongs to this call.
+        let k = start;
+        for (let i = start; i < start + len; i++) {
+            const x = a[i]!;
+            if ((((x ^ (x >>> 1)) & unate)) === 0) a[k++] = x;
         }
-        if (k < len) return tautWord(g.subarray(0, k), mask);
+        if (k - start < len) return tautAt(start, k - start, mask);
     }
     const binate = anyZero & anyOne;
     if (binate === 0) return false;
-    const { bit, oneFirst } = splitVariable(vals, len, binate, lm);
-    const first: 0 | 1 = oneFirst ? 1 : 0;
-    return tautWord(cofactorWord(vals, len, bit, first), mask) && tautWord(cofactorWord(vals, len, bit, first === 1 ? 0 : 1), mask);
+    // The most binate variable (as splitVariable).
+    let bit = 0;
+    let bestScore = -1;
+    let oneFirst = true;
+    let y = binate;
+    while (y !== 0) {
+        const b = y & -y;
+        y ^= b;
+        const pos = 31 - Math.clz32(b);
+        let z = 0;
+        let o = 0;
+        for (let i = start; i < start + len; i++) {
+            const f = (a[i]! >>> pos) & 3;
+            if (f === 1) z++;
+            else if (f === 2) o++;
+        }
+        const score = (z + o) * 1024 - Math.abs(z - o);
+        if (score > bestScore) { bestScore = score; bit = b; oneFirst = o >= z; }
+    }
+    const pos = 31 - Math.clz32(bit);
+    const free = (3 << pos) >>> 0;
+    for (let pass = 0; pass < 2; pass++) {
+        const want = (pass === 0) === oneFirst ? 2 : 1;
+        const base = top;
+        reserve(len);
+        a = arena;
+        let k = base;
+        for (let i = start; i < start + len; i++) {
+            const x = a[i]!;
+            const f = (x >>> pos) & 3;
+            if (f === 3) a[k++] = x;
+            else if (f === want) a[k++] = (x | free) >>> 0;
+        }
+        top = k;
+        const ok = tautAt(base, k - base, mask);
+        top = base;
+        a = arena;
+        if (!ok) return false;
+    }
+    return true;
 }
 
 /** Supercube of the complement of the cover, or -1 when the cover is a tautology. */

@@ -15,6 +15,7 @@ import {
 } from '@detent/core';
 import { jsonReport, sarifReport } from '../packages/cli/src/check-report.js';
 import { synthJson } from '../packages/cli/src/commands/synth.js';
+import { formatDetentText } from '../packages/language/src/lsp/formatter.js';
 import { lineLengths, rangeProblem } from './fuzz-lib.js';
 
 export interface PipelineResult {
@@ -87,6 +88,11 @@ export function runPipeline(text: string, options: PipelineOptions): PipelineRes
         }
     };
     const lengths = lineLengths(text);
+    step('format', () => {
+        // the editor formats any text: it must not throw, and a result must be a fixed point
+        const once = formatDetentText(text);
+        if (once !== undefined && formatDetentText(once) !== once) problems.push('format: not idempotent');
+    });
     step('parse', () => {
         const parsed = parseDetent(text, 'file:///fuzz.detent');
         machines = parsed.machines.length;

@@ -97,3 +97,13 @@ describe('formatter on the fuzz corpus', () => {
         }), { seed: 20261202, numRuns: 60 });
     }, 240_000);
 });
+
+describe('formatter limits', () => {
+    test('a text past the file-length limit is left alone, quickly (the server would block on it)', async () => {
+        const { MAX_SOURCE_LENGTH } = await import('@detent/language');
+        const text = `machine M {\n${'    state S0 { otherwise stay; }\n'.repeat(Math.ceil(MAX_SOURCE_LENGTH / 30) + 10)}}\n`;
+        const t0 = Date.now();
+        expect(formatDetentText(text)).toBeUndefined();
+        expect(Date.now() - t0).toBeLessThan(1000);
+    });
+});

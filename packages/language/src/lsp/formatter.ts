@@ -12,6 +12,7 @@
 import type { DocumentFormattingParams, DocumentOnTypeFormattingOptions, DocumentRangeFormattingParams, FormattingOptions, TextEdit } from 'vscode-languageserver-protocol';
 import type { LangiumDocument, MaybePromise } from 'langium';
 import type { Formatter } from 'langium/lsp';
+import { MAX_SOURCE_LENGTH } from '../syntax/limits.js';
 
 type TokenKind = 'id' | 'number' | 'punct' | 'line-comment' | 'block-comment';
 
@@ -101,6 +102,8 @@ export interface DetentFormatOptions {
 
 /** The formatted text, or undefined when the text cannot be formatted safely (unknown characters, unclosed comment). */
 export function formatDetentText(text: string, options: DetentFormatOptions = { tabSize: 4, insertSpaces: true }): string | undefined {
+    // beyond the file-length limit nothing is parsed either; formatting megabytes would block the server for seconds
+    if (text.length > MAX_SOURCE_LENGTH) return undefined;
     const tokens = lexDetent(text);
     if (!tokens) return undefined;
     const unit = options.insertSpaces ? ' '.repeat(Math.max(1, options.tabSize)) : '\t';

@@ -67,6 +67,15 @@ describe('I/O errors exit 2 with one line', () => {
         expectUsage(detent('synth', fifo), /not a regular file/);
     });
 
+    test('sim and test: missing or blocking stimulus and sources', () => {
+        const fifo = join(work, 'pipe.detent');
+        if (!existsSync(fifo)) spawnSync('mkfifo', [fifo]);
+        expectUsage(detent('sim', 'good.detent', '--stimulus', 'missing.stim'), /missing\.stim: no such file/);
+        if (existsSync(fifo)) expectUsage(detent('sim', 'good.detent', '--stimulus', fifo), /not a regular file/);
+        expectUsage(detent('test', 'missing.detent'), /missing\.detent: no such file/);
+        expectUsage(detent('sim', 'good.detent', '--stimulus'), /needs a value/);
+    });
+
     test('an unreadable file', () => {
         const locked = join(work, 'locked.detent');
         writeFileSync(locked, GOOD);

@@ -7,19 +7,13 @@
  */
 import type { Cube } from '../cube.js';
 import { cubeLiteralCount } from './expand.js';
-import { coverHasCube } from './unate.js';
+import { coverHasCube, coverHasCubeExcept } from './unate.js';
 
 export function irredundant(f: readonly Cube[], dc: readonly Cube[], nvars: number): Cube[] {
     const n = f.length;
     if (n === 0) return [];
     const essential = new Uint8Array(n);
-    const others: Cube[] = [];
-    for (let i = 0; i < n; i++) {
-        others.length = 0;
-        for (let j = 0; j < n; j++) if (j !== i) others.push(f[j]!);
-        for (const d of dc) others.push(d);
-        if (!coverHasCube(others, f[i]!, nvars)) essential[i] = 1;
-    }
+    for (let i = 0; i < n; i++) if (!coverHasCubeExcept(f, i, dc, f[i]!, nvars)) essential[i] = 1;
     const base: Cube[] = [...dc];
     for (let i = 0; i < n; i++) if (essential[i]) base.push(f[i]!);
     const partial: number[] = [];

@@ -6,7 +6,7 @@
 import type { Cube } from '../cube.js';
 import { cubeLiteralCount } from './expand.js';
 import { complementSupercube, cubeCofactor, masksFor } from './unate.js';
-import { scccWord } from './word.js';
+import { scccWordFill } from './word.js';
 
 /** The maximal reduction of f[i] against the other cubes of f and dc, or null when redundant. */
 export function reduceCube(f: readonly Cube[], i: number, dc: readonly Cube[], nvars: number): Cube | null {
@@ -19,15 +19,21 @@ export function reduceCube(f: readonly Cube[], i: number, dc: readonly Cube[], n
         const p0 = c[0]!;
         const lit = (p0 ^ (p0 >>> 1)) & m;
         const litMask = (lit | (lit << 1)) >>> 0;
-        const vals = new Uint32Array(f.length + dc.length);
-        let k = 0;
-        const take = (x0: number): void => {
-            const x = x0 & p0;
-            if (((x | (x >>> 1)) & m) === m) vals[k++] = (x0 | litMask) >>> 0;
-        };
-        for (let j = 0; j < f.length; j++) if (j !== i) take(f[j]![0]!);
-        for (const d of dc) take(d[0]!);
-        const sw = scccWord(vals.subarray(0, k), mask);
+        const sw = scccWordFill(f.length + dc.length, mask, (out, start) => {
+            let k = start;
+            for (let j = 0; j < f.length; j++) {
+                if (j === i) continue;
+                const x0 = f[j]![0]!;
+                const x = x0 & p0;
+                if (((x | (x >>> 1)) & m) === m) out[k++] = (x0 | litMask) >>> 0;
+            }
+            for (let j = 0; j < dc.length; j++) {
+                const x0 = dc[j]![0]!;
+                const x = x0 & p0;
+                if (((x | (x >>> 1)) & m) === m) out[k++] = (x0 | litMask) >>> 0;
+            }
+            return k - start;
+        });
         return sw === -1 ? null : Uint32Array.of((p0 & sw) >>> 0);
     }
     const cof: Cube[] = [];

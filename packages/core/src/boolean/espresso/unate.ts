@@ -254,6 +254,40 @@ export function coverHasCube(f: readonly Cube[], c: Cube, nvars: number): boolea
 }
 
 /**
+ * coverHasCube(f without f[skip], then extra…, c) without building that cover: IRREDUNDANT asks
+ * it once per cube, and the copies were most of its time.
+ */
+export function coverHasCubeExcept(f: readonly Cube[], skip: number, extra: readonly Cube[], c: Cube, nvars: number): boolean {
+    const masks = masksFor(nvars);
+    if (masks.length !== 1) {
+        const others: Cube[] = [];
+        for (let j = 0; j < f.length; j++) if (j !== skip) others.push(f[j]!);
+        for (const d of extra) others.push(d);
+        return isTautology(cubeCofactor(others, c, nvars), nvars);
+    }
+    const mask = masks[0]!;
+    const m = mask & LOW;
+    const p0 = c[0]!;
+    const lit = literalBits(p0, mask);
+    const litMask = (lit | (lit << 1)) >>> 0;
+    return tautWordFill(f.length + extra.length, mask, (out, start) => {
+        let k = start;
+        for (let i = 0; i < f.length; i++) {
+            if (i === skip) continue;
+            const x0 = f[i]![0]!;
+            const x = x0 & p0;
+            if (((x | (x >>> 1)) & m) === m) out[k++] = (x0 | litMask) >>> 0;
+        }
+        for (let i = 0; i < extra.length; i++) {
+            const x0 = extra[i]![0]!;
+            const x = x0 & p0;
+            if (((x | (x >>> 1)) & m) === m) out[k++] = (x0 | litMask) >>> 0;
+        }
+        return k - start;
+    });
+}
+
+/**
  * Supercube of the complement of f (the smallest cube containing every minterm not in f),
  * or null when f is a tautology.
  */

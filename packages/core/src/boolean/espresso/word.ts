@@ -207,6 +207,84 @@ export function scccWord(vals: Uint32Array, mask: number): number {
     return (s0 | s1) >>> 0;
 }
 
+/**
+ * scccWord of the one-word cover written by `fill` at `out[start…]` (returning its length), on
+ * the scratch stack: REDUCE asks it once per cube. Same recursion as scccWord.
+ */
+export function scccWordFill(capacity: number, mask: number, fill: (out: Uint32Array, start: number) => number): number {
+    const base = top;
+    reserve(capacity);
+    const len = fill(arena, base);
+    top = base + len;
+    try {
+        return scccAt(base, len, mask);
+    } finally {
+        top = base;
+    }
+}
+
+function scccAt(start: number, len: number, mask: number): number {
+    if (len === 0) return mask >>> 0;
+    const lm = mask & LOW;
+    let a = arena;
+    for (let i = start; i < start + len; i++) if (a[i] === mask) return -1;
+    if (len === 1) {
+        const x = a[start]!;
+        const lit = (x ^ (x >>> 1)) & lm;
+        if (popcount(lit) !== 1) return mask >>> 0;
+        const pos = 31 - Math.clz32(lit);
+        const f = (x >>> pos) & 3;
+        return ((mask & ~(3 << pos)) | ((f ^ 3) << pos)) >>> 0;
+    }
+    let anyZero = 0;
+    let anyOne = 0;
+    for (let i = start; i < start + len; i++) {
+        const x = a[i]!;
+        anyZero |= x & ~(x >>> 1) & lm;
+        anyOne |= (x >>> 1) & ~x & lm;
+    }
+    const binate = anyZero & anyOne;
+    const { bit } = splitVariable(a.subarray(start, start + len), len, binate !== 0 ? binate : (anyZero | anyOne), lm);
+    const pos = 31 - Math.clz32(bit);
+    const free = (3 << pos) >>> 0;
+    // Both cofactors above this region: f0 at [b0, b1), f1 at [b1, end).
+    const b0 = top;
+    reserve(2 * len);
+    a = arena;
+    let k = b0;
+    for (let i = start; i < start + len; i++) {
+        const x = a[i]!;
+        const f = (x >>> pos) & 3;
+        if (f === 3) a[k++] = x;
+        else if (f === 1) a[k++] = (x | free) >>> 0;
+    }
+    const b1 = k;
+    for (let i = start; i < start + len; i++) {
+        const x = a[i]!;
+        const f = (x >>> pos) & 3;
+        if (f === 3) a[k++] = x;
+        else if (f === 2) a[k++] = (x | free) >>> 0;
+    }
+    const end = k;
+    top = end;
+    try {
+        const s0 = scccAt(b0, b1 - b0, mask);
+        if (s0 === (mask >>> 0)) {
+            top = end;
+            if (!tautAt(b1, end - b1, mask)) return s0;
+            return ((s0 & ~free) | (1 << pos)) >>> 0;
+        }
+        top = end;
+        const s1 = scccAt(b1, end - b1, mask);
+        if (s0 === -1 && s1 === -1) return -1;
+        if (s0 === -1) return ((s1 & ~free) | (2 << pos)) >>> 0;
+        if (s1 === -1) return ((s0 & ~free) | (1 << pos)) >>> 0;
+        return (s0 | s1) >>> 0;
+    } finally {
+        top = b0;
+    }
+}
+
 /** Thrown when the one-word complement exceeds its budget. */
 export class WordBudgetExceeded extends Error {}
 

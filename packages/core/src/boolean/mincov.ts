@@ -155,16 +155,22 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
             const dropCol = new Uint8Array(nc);
             if (nc * nc * rw <= effort) {
                 const byCount = Array.from({ length: nc }, (_, j) => j).sort((a, b) => t.colCount[b]! - t.colCount[a]! || a - b);
+                // Local copies: the pair loop below is the hottest of the search.
+                const cc = t.colCount;
+                const colCost = new Float64Array(nc);
+                for (let j = 0; j < nc; j++) colCost[j] = p.cost[t.cols[j]!]!;
                 for (let a = 0; a < nc; a++) {
                     if (t.colCount[a] === 0) { dropCol[a] = 1; changed = true; continue; }
-                    const ca = p.cost[t.cols[a]!]!;
+                    const ca = colCost[a]!;
+                    const na = cc[a]!;
                     for (const b of byCount) {
-                        if (t.colCount[b]! < t.colCount[a]!) break;
+                        const nb = cc[b]!;
+                        if (nb < na) break;
                         if (b === a || dropCol[b]) continue;
-                        const cb = p.cost[t.cols[b]!]!;
+                        const cb = colCost[b]!;
                         if (cb > ca + EPS) continue;
                         // Twins (same rows, same cost): keep the first.
-                        if (t.colCount[b] === t.colCount[a] && cb >= ca - EPS && b > a) continue;
+                        if (nb === na && cb >= ca - EPS && b > a) continue;
                         if (subset(t.colBits, a * rw, b * rw, rw)) { dropCol[a] = 1; changed = true; break; }
                     }
                 }

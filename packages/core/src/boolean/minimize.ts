@@ -62,7 +62,10 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
     // Every minimal cover contains every essential prime; a cover made only of essential primes
     // is therefore the one minimal cover (fewest products and fewest literals), and the exact
     // step could only confirm it. Primality is re-checked against the OFF-set rather than assumed.
-    if (h.target.off !== null && essentialPrimes(cover, dcCubes, nvars).length === cover.length
+    // (Every prime cover holds all essential primes, so that can only happen when the heuristic
+    // already found the first irredundant cover to be all essential: the check runs only then.)
+    if (h.target.off !== null && h.essentialCount === cover.length
+        && essentialPrimes(cover, dcCubes, nvars).length === cover.length
         && allPrime(cover, h.target.off, nvars)) return { cover, exact: true };
     const hc = coverCost(cover, nvars);
     const weight = productWeight(nvars, hc.products);

@@ -34,6 +34,8 @@ export interface HeuristicResult {
     readonly cover: Cube[];
     /** ON ∪ DC and, when it was affordable, the OFF-set (reused by the exact step). */
     readonly target: ExpandTarget;
+    /** How many cubes of the first prime cover were essential primes (0 when the loop did not run). */
+    readonly essentialCount?: number;
 }
 
 export function espressoHeuristic(on: readonly Cube[], dc: readonly Cube[], nvars: number, options: HeuristicOptions): HeuristicResult {
@@ -53,9 +55,9 @@ export function espressoHeuristic(on: readonly Cube[], dc: readonly Cube[], nvar
     if (essentials.length > 0) {
         const rest = f.filter((c) => !essentials.includes(c));
         const inner = improve(rest, [...dc, ...essentials], nvars, target, options.deadline);
-        return { cover: [...essentials, ...inner], target };
+        return { cover: [...essentials, ...inner], target, essentialCount: essentials.length };
     }
-    return { cover: improve(f, dc, nvars, target, options.deadline), target };
+    return { cover: improve(f, dc, nvars, target, options.deadline), target, essentialCount: 0 };
 }
 
 /** The REDUCE / EXPAND / IRREDUNDANT loop with LAST_GASP on a cover of primes. */

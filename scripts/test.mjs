@@ -27,8 +27,11 @@ function countVitest(file) {
     if (!existsSync(file)) return false;
     const report = JSON.parse(readFileSync(file, 'utf8'));
     passed += report.numPassedTests ?? 0;
-    // A suite that fails to load counts once, beside its failed tests.
-    failed += (report.numFailedTests ?? 0) + (report.numFailedTestSuites ?? 0);
+    failed += report.numFailedTests ?? 0;
+    // A test file that fails to load has no failed test of its own: count it once.
+    for (const file of report.testResults ?? []) {
+        if (file.status === 'failed' && !(file.assertionResults ?? []).some((a) => a.status === 'failed')) failed++;
+    }
     skipped += (report.numPendingTests ?? 0) + (report.numTodoTests ?? 0);
     return true;
 }

@@ -10,21 +10,12 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { existsSync, readFileSync } from 'node:fs';
 import { DidChangeTextDocumentNotification, type Hover } from 'vscode-languageserver-protocol/node';
 import { LspSession } from '../lsp/harness.js';
+import { mulberry32 } from '../../packages/core/test/support/random-machine.js';
 
 const EDITS = 2000;
 const SAMPLE_EVERY = 200;
 
-/** mulberry32 (public-domain PRNG, from memory): a fixed seed gives the same edits every run. */
-function rng(seed: number): () => number {
-    let a = seed >>> 0;
-    return () => {
-        a = (a + 0x6d2b79f5) >>> 0;
-        let t = a;
-        t = Math.imul(t ^ (t >>> 15), t | 1);
-        t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-        return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-    };
-}
+const rng = mulberry32;
 
 const STATES = ['Standby', 'Priming', 'Running', 'Flushing', 'Draining', 'Stopped'];
 const BASE = [

@@ -4,17 +4,10 @@
  * cube strings here, never from the code under test).
  */
 
-/** mulberry32: a small seeded PRNG (common practice), so the suite is the same on every run. */
-export function rng(seed: number): () => number {
-    let a = seed >>> 0;
-    return () => {
-        a = (a + 0x6d2b79f5) >>> 0;
-        let t = a;
-        t = Math.imul(t ^ (t >>> 15), t | 1);
-        t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-        return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-    };
-}
+import { mulberry32 } from '../support/random-machine.js';
+
+/** The shared seeded PRNG (mulberry32), so the suite is the same on every run. */
+export const rng = mulberry32;
 
 export interface SuiteFunction {
     readonly name: string;

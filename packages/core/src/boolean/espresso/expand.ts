@@ -8,6 +8,7 @@
  *  - by containment checks in ON ∪ DC (tautology of a cofactor), when the OFF-set would be
  *    too large to compute — one-hot style covers have exponentially large complements.
  */
+import { cpuNow } from '../clock.js';
 import { type Cube, wordMask, wordsFor } from '../cube.js';
 import { coverHasCube, literalBits, popcount32 } from './unate.js';
 
@@ -26,8 +27,12 @@ export function cubeLiteralCount(c: Cube, nvars: number): number {
     return n;
 }
 
-/** Expands every cube of f to a prime; cubes swallowed by an earlier prime disappear. */
-export function expand(f: readonly Cube[], nvars: number, target: ExpandTarget): Cube[] {
+/**
+ * Expands every cube of f to a prime; cubes swallowed by an earlier prime disappear. Past the
+ * (CPU) deadline the remaining cubes are kept as they are: still implicants, so the cover stays
+ * valid, only less minimized — a budget must bound the slowest call, not just the loop around it.
+ */
+export function expand(f: readonly Cube[], nvars: number, target: ExpandTarget, deadline = Infinity): Cube[] {
     const words = wordsFor(nvars);
     const masks = new Uint32Array(words);
     for (let w = 0; w < words; w++) masks[w] = wordMask(nvars, w) & LOW;
@@ -38,14 +43,17 @@ export function expand(f: readonly Cube[], nvars: number, target: ExpandTarget):
     const primes: Cube[] = [];
     const rowMasks = target.off ? new Uint32Array(target.off.length * words) : null;
     const scratch = target.off ? { active: new Int32Array(target.off.length), hits: new Int32Array(target.off.length) } : null;
+    let expired = false;
     for (const i of order) {
         if (covered[i]) continue;
         covered[i] = 1;
+        if (!expired && deadline !== Infinity && cpuNow() > deadline) expired = true;
+        if (expired) { primes.push(f[i]!); continue; }
         const p = target.off
             ? words === 1
                 ? expandAgainstOffWord(i, f, covered, target.off, rowMasks!, scratch!, masks)
                 : expandAgainstOff(i, f, covered, target.off, rowMasks!, scratch!, masks, nvars)
-            : expandByContainment(i, f, covered, target.care, masks, nvars);
+            : expandByContainment(i, f, covered, target.care, masks, nvars, deadline);
         for (let j = 0; j < f.length; j++) {
             if (covered[j]) continue;
             const d = f[j]!;
@@ -240,7 +248,7 @@ function expandAgainstOff(
 const MAX_NEIGHBOUR_CHECKS = 8;
 
 function expandByContainment(
-    i: number, f: readonly Cube[], covered: Uint8Array, care: readonly Cube[], masks: Uint32Array, nvars: number,
+    i: number, f: readonly Cube[], covered: Uint8Array, care: readonly Cube[], masks: Uint32Array, nvars: number, deadline: number,
 ): Cube {
     const words = masks.length;
     let cur = f[i]!.slice();
@@ -260,6 +268,8 @@ function expandByContainment(
     for (let w = 0; w < words; w++) {
         let y = (cur[w]! ^ (cur[w]! >>> 1)) & masks[w]!;
         while (y !== 0) {
+            // Each check is a tautology over ON ∪ DC; past the deadline, stop raising (cur is an implicant).
+            if (deadline !== Infinity && cpuNow() > deadline) return cur;
             const b = y & -y;
             y ^= b;
             const s = cur.slice();

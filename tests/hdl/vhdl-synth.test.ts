@@ -4,7 +4,7 @@
  * every example and a seeded random sample, behavioral and structural, into a netlist. It must
  * succeed without a single message. Latches cannot slip through: without `--latches`, GHDL 2.0
  * refuses a design that infers one ("latch infered for net …", exit 1 — checked by hand on a
- * deliberately latching process while writing this test).
+ * deliberately latching process in the last test below).
  */
 import { describe, expect, it, beforeAll } from 'vitest';
 import { exportMachine, type ExportStyle } from '@detent/core';
@@ -38,4 +38,18 @@ describe.runIf(toolsAvailable(['ghdl']))('VHDL exports: GHDL synthesis elaborate
             expect(synthesized).toBe(corpus.length);
         }, 600_000);
     }
+
+    it('the oracle can fail: GHDL refuses a design that infers a latch', async () => {
+        const dir = scratchDir('ghdl-synth-latch');
+        writeAll(dir, [{ name: 'latchy.vhd', text: [
+            'library ieee; use ieee.std_logic_1164.all;',
+            'entity latchy is port (en, d : in std_logic; q : out std_logic); end entity;',
+            'architecture a of latchy is begin',
+            "  process (en, d) begin if en = '1' then q <= d; end if; end process;",
+            'end architecture;', ''].join('\n') }]);
+        expect((await run('ghdl', ['-a', '--std=08', 'latchy.vhd'], dir)).code).toBe(0);
+        const r = await run('ghdl', ['--synth', '--std=08', 'latchy'], dir);
+        expect(r.code).not.toBe(0);
+        expect(r.stderr).toMatch(/latch/i);
+    });
 });

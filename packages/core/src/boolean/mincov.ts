@@ -83,12 +83,6 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
         return { rows, cols, cw, rw, rowBits, colBits, rowCount, colCount };
     };
 
-    /** Bits of x[a…a+len) all within x[b…b+len). */
-    const subset = (x: Uint32Array, a: number, b: number, len: number): boolean => {
-        for (let i = 0; i < len; i++) if ((x[a + i]! & ~x[b + i]!) !== 0) return false;
-        return true;
-    };
-
     /**
      * Applies the reductions until nothing changes. Returns the table left (possibly empty),
      * or null when a row has no column left. Chosen columns go to `chosen`, their cost to acc.
@@ -141,38 +135,80 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
             const order = Array.from({ length: nr }, (_, i) => i).sort((a, b) => t.rowCount[a]! - t.rowCount[b]! || a - b);
             const dropRow = new Uint8Array(nr);
             if (nr * nr * cw <= effort) {
+                // The rows holding every column of a are the AND of a's columns' row sets — a few
+                // word operations per column of a, instead of a subset test against every row.
+                // Same outcome as testing the pairs in `order`: a later row containing an
+                // earlier kept row is dropped.
+                const pos = new Int32Array(nr);
+                for (let x = 0; x < nr; x++) pos[order[x]!] = x;
+                const sup = new Uint32Array(rw);
                 for (let x = 0; x < nr; x++) {
                     const a = order[x]!;
                     if (dropRow[a]) continue;
-                    for (let y = x + 1; y < nr; y++) {
-                        const b = order[y]!;
-                        if (dropRow[b]) continue;
-                        if (subset(t.rowBits, a * cw, b * cw, cw)) { dropRow[b] = 1; changed = true; }
+                    sup.fill(0xffffffff);
+                    const ro = a * cw;
+                    for (let w = 0; w < cw; w++) {
+                        let y = t.rowBits[ro + w]!;
+                        while (y !== 0) {
+                            const bit = y & -y;
+                            const co = (w * 32 + 31 - Math.clz32(bit)) * rw;
+                            for (let k = 0; k < rw; k++) sup[k]! &= t.colBits[co + k]!;
+                            y ^= bit;
+                        }
+                    }
+                    for (let k = 0; k < rw; k++) {
+                        let y = sup[k]!;
+                        while (y !== 0) {
+                            const bit = y & -y;
+                            const b = k * 32 + 31 - Math.clz32(bit);
+                            y ^= bit;
+                            if (b >= nr || pos[b]! <= x || dropRow[b]) continue;
+                            dropRow[b] = 1; changed = true;
+                        }
                     }
                 }
             }
             // Column dominance: a column whose rows lie within a no-dearer column's is not needed.
             const dropCol = new Uint8Array(nc);
             if (nc * nc * rw <= effort) {
-                const byCount = Array.from({ length: nc }, (_, j) => j).sort((a, b) => t.colCount[b]! - t.colCount[a]! || a - b);
                 // Local copies: the pair loop below is the hottest of the search.
                 const cc = t.colCount;
                 const colCost = new Float64Array(nc);
                 for (let j = 0; j < nc; j++) colCost[j] = p.cost[t.cols[j]!]!;
+                // The columns covering every row of a: the AND of a's rows' column sets (as for rows).
+                const sup = new Uint32Array(cw);
                 for (let a = 0; a < nc; a++) {
                     if (t.colCount[a] === 0) { dropCol[a] = 1; changed = true; continue; }
                     const ca = colCost[a]!;
                     const na = cc[a]!;
-                    for (const b of byCount) {
-                        const nb = cc[b]!;
-                        if (nb < na) break;
-                        if (b === a || dropCol[b]) continue;
-                        const cb = colCost[b]!;
-                        if (cb > ca + EPS) continue;
-                        // Twins (same rows, same cost): keep the first.
-                        if (nb === na && cb >= ca - EPS && b > a) continue;
-                        if (subset(t.colBits, a * rw, b * rw, rw)) { dropCol[a] = 1; changed = true; break; }
+                    sup.fill(0xffffffff);
+                    const co = a * rw;
+                    for (let k = 0; k < rw; k++) {
+                        let y = t.colBits[co + k]!;
+                        while (y !== 0) {
+                            const bit = y & -y;
+                            const ro = (k * 32 + 31 - Math.clz32(bit)) * cw;
+                            for (let w = 0; w < cw; w++) sup[w]! &= t.rowBits[ro + w]!;
+                            y ^= bit;
+                        }
                     }
+                    let dominated = false;
+                    for (let w = 0; w < cw && !dominated; w++) {
+                        let y = sup[w]!;
+                        while (y !== 0) {
+                            const bit = y & -y;
+                            const b = w * 32 + 31 - Math.clz32(bit);
+                            y ^= bit;
+                            if (b >= nc || b === a || dropCol[b]) continue;
+                            const cb = colCost[b]!;
+                            if (cb > ca + EPS) continue;
+                            // Twins (same rows, same cost): keep the first.
+                            if (cc[b] === na && cb >= ca - EPS && b > a) continue;
+                            dominated = true;
+                            break;
+                        }
+                    }
+                    if (dominated) { dropCol[a] = 1; changed = true; }
                 }
             }
             if (!changed) return t;
@@ -210,6 +246,43 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
         return bound;
     };
 
+    /** True when the child (rows outside column bits at colBits[o…], columns outside `banned`) cannot beat bestCost. */
+    const childBoundExceeded = (t: Table, order: number[], colBits: Uint32Array, o: number, banned: Uint32Array, base: number): boolean => {
+        if (base >= bestCost - EPS) return true;
+        const cw = t.cw;
+        const used = new Uint32Array(cw);
+        const bits = t.rowBits;
+        work += 200 + order.length * cw;
+        let bound = base;
+        for (const i of order) {
+            if ((colBits[o + (i >>> 5)]! >>> (i & 31)) & 1) continue;
+            const ro = i * cw;
+            let clash = false;
+            let empty = true;
+            for (let w = 0; w < cw; w++) {
+                const x = bits[ro + w]! & ~banned[w]!;
+                if (x !== 0) empty = false;
+                if ((x & used[w]!) !== 0) { clash = true; break; }
+            }
+            if (clash) continue;
+            if (empty) return true;
+            let m = Infinity;
+            for (let w = 0; w < cw; w++) {
+                let y = (bits[ro + w]! & ~banned[w]!) >>> 0;
+                used[w] = (used[w]! | y) >>> 0;
+                while (y !== 0) {
+                    const b = y & -y;
+                    const cst = p.cost[t.cols[w * 32 + 31 - Math.clz32(b)]!]!;
+                    if (cst < m) m = cst;
+                    y ^= b;
+                }
+            }
+            bound += m;
+            if (bound >= bestCost - EPS) return true;
+        }
+        return false;
+    };
+
     const search = (rows: number[], cols: number[], chosen: number[], cost: number, depth: number): void => {
         if (cpuNow() > deadline) throw new OutOfTime();
         const acc = { cost };
@@ -234,10 +307,23 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
         }
         options.sort((a, b) => p.cost[t.cols[a]!]! - p.cost[t.cols[b]!]! || t.colCount[b]! - t.colCount[a]! || a - b);
         const excluded = new Uint8Array(t.cols.length);
+        // Columns a child may not use (earlier siblings' and its own), as a mask over local columns.
+        const banned = new Uint32Array(t.cw);
+        const rowOrder = Array.from({ length: t.rows.length }, (_, i) => i).sort((a, b) => t.rowCount[a]! - t.rowCount[b]! || a - b);
         for (const j of options) {
             const c = t.cols[j]!;
             const colRowsHere = t.colBits;
             const o = j * t.rw;
+            banned[j >>> 5]! |= 1 << (j & 31);
+            // Prune before building the child's table: a maximal independent set of the rows c
+            // leaves, over the columns the child may use, bounds the child from below (the
+            // reductions never lower a table's optimum), and a row with no usable column left
+            // makes the child infeasible. Such children could not be accepted by the search
+            // anyway, so the covers found are the same, only reached with less work.
+            if (childBoundExceeded(t, rowOrder, colRowsHere, o, banned, acc.cost + p.cost[c]!)) {
+                excluded[j] = 1;
+                continue;
+            }
             const childRows = t.rows.filter((_, i) => ((colRowsHere[o + (i >>> 5)]! >>> (i & 31)) & 1) === 0);
             const childCols = t.cols.filter((_, k) => k !== j && !excluded[k]);
             const base = chosen.length;

@@ -59,15 +59,48 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
     let bestCost = upperBound;
     let work = 0;
 
-    const build = (rows: number[], cols: number[]): Table => {
+    // Table storage, one set per search depth: a node's table lives while its children are
+    // searched (one depth down), and the passes of one node overwrite their own. Reusing it
+    // instead of allocating per pass keeps the collector out of the search.
+    const pools: { rowBits: Uint32Array; colBits: Uint32Array; rowCount: Int32Array; colCount: Int32Array }[] = [];
+    const grow = <T extends Uint32Array | Int32Array>(a: T, n: number, make: (n: number) => T): T => {
+        if (a.length >= n) { a.fill(0, 0, n); return a; }
+        return make(n);
+    };
+    // Pass-scoped scratch (reduceTable does not recurse), sized for the root table.
+    const nRowsAll = p.rows.length;
+    const scratchRow = new Uint8Array(nRowsAll);
+    const scratchRow2 = new Uint8Array(nRowsAll);
+    const scratchPos = new Int32Array(nRowsAll);
+    const scratchCol = new Uint8Array(nCols);
+    const scratchCol2 = new Uint8Array(nCols);
+    const scratchCost = new Float64Array(nCols);
+    const scratchSupR = new Uint32Array((nRowsAll + 31) >>> 5);
+    const scratchSupC = new Uint32Array((nCols + 31) >>> 5);
+
+    const scratchOrder = new Int32Array(nRowsAll);
+    const countStart = new Int32Array(nCols + 2);
+    /** Local rows by ascending column count, ties by index (a stable counting sort) into out. */
+    const rowsByCount = (t: Table, out: Int32Array): Int32Array => {
+        const nr = t.rows.length;
+        const nc = t.cols.length;
+        countStart.fill(0, 0, nc + 2);
+        for (let i = 0; i < nr; i++) countStart[t.rowCount[i]! + 1]!++;
+        for (let k = 1; k <= nc + 1; k++) countStart[k]! += countStart[k - 1]!;
+        for (let i = 0; i < nr; i++) out[countStart[t.rowCount[i]!]!++] = i;
+        return out;
+    };
+
+    const build = (rows: number[], cols: number[], depth: number): Table => {
         cols.forEach((c, i) => { localCol[c] = i; });
         rows.forEach((r, i) => { localRow[r] = i; });
         const cw = (cols.length + 31) >>> 5;
         const rw = (rows.length + 31) >>> 5;
-        const rowBits = new Uint32Array(rows.length * cw);
-        const colBits = new Uint32Array(cols.length * rw);
-        const rowCount = new Int32Array(rows.length);
-        const colCount = new Int32Array(cols.length);
+        const pool = pools[depth] ??= { rowBits: new Uint32Array(0), colBits: new Uint32Array(0), rowCount: new Int32Array(0), colCount: new Int32Array(0) };
+        const rowBits = pool.rowBits = grow(pool.rowBits, rows.length * cw, (n) => new Uint32Array(n));
+        const colBits = pool.colBits = grow(pool.colBits, cols.length * rw, (n) => new Uint32Array(n));
+        const rowCount = pool.rowCount = grow(pool.rowCount, rows.length, (n) => new Int32Array(n));
+        const colCount = pool.colCount = grow(pool.colCount, cols.length, (n) => new Int32Array(n));
         for (let i = 0; i < rows.length; i++) {
             for (const c of p.rows[rows[i]!]!) {
                 const j = localCol[c]!;
@@ -92,7 +125,7 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
         const effort = 8_000_000;
         for (;;) {
             if (cpuNow() > deadline) throw new OutOfTime();
-            const t = build(rows, cols);
+            const t = build(rows, cols, depth);
             const nr = t.rows.length;
             const nc = t.cols.length;
             const cw = (nc + 31) >>> 5;
@@ -103,7 +136,7 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
             if (work > maxWork) throw new OutOfTime();
             if (nr === 0) return t;
             // Essential columns.
-            const taken = new Uint8Array(nc);
+            const taken = scratchCol; taken.fill(0, 0, nc);
             let anyEssential = false;
             for (let i = 0; i < nr; i++) {
                 const k = t.rowCount[i]!;
@@ -116,7 +149,7 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
                 }
             }
             if (anyEssential) {
-                const coveredRows = new Uint8Array(nr);
+                const coveredRows = scratchRow2; coveredRows.fill(0, 0, nr);
                 const keptCols: number[] = [];
                 for (let j = 0; j < nc; j++) {
                     if (!taken[j]) { keptCols.push(t.cols[j]!); continue; }
@@ -132,20 +165,20 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
             }
             let changed = false;
             // Row dominance: a row containing another row's columns is implied by it.
-            const order = Array.from({ length: nr }, (_, i) => i).sort((a, b) => t.rowCount[a]! - t.rowCount[b]! || a - b);
-            const dropRow = new Uint8Array(nr);
+            const order = rowsByCount(t, scratchOrder);
+            const dropRow = scratchRow; dropRow.fill(0, 0, nr);
             if (nr * nr * cw <= effort) {
                 // The rows holding every column of a are the AND of a's columns' row sets — a few
                 // word operations per column of a, instead of a subset test against every row.
                 // Same outcome as testing the pairs in `order`: a later row containing an
                 // earlier kept row is dropped.
-                const pos = new Int32Array(nr);
+                const pos = scratchPos;
                 for (let x = 0; x < nr; x++) pos[order[x]!] = x;
-                const sup = new Uint32Array(rw);
+                const sup = scratchSupR;
                 for (let x = 0; x < nr; x++) {
                     const a = order[x]!;
                     if (dropRow[a]) continue;
-                    sup.fill(0xffffffff);
+                    sup.fill(0xffffffff, 0, rw);
                     const ro = a * cw;
                     for (let w = 0; w < cw; w++) {
                         let y = t.rowBits[ro + w]!;
@@ -169,19 +202,19 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
                 }
             }
             // Column dominance: a column whose rows lie within a no-dearer column's is not needed.
-            const dropCol = new Uint8Array(nc);
+            const dropCol = scratchCol2; dropCol.fill(0, 0, nc);
             if (nc * nc * rw <= effort) {
                 // Local copies: the pair loop below is the hottest of the search.
                 const cc = t.colCount;
-                const colCost = new Float64Array(nc);
+                const colCost = scratchCost;
                 for (let j = 0; j < nc; j++) colCost[j] = p.cost[t.cols[j]!]!;
                 // The columns covering every row of a: the AND of a's rows' column sets (as for rows).
-                const sup = new Uint32Array(cw);
+                const sup = scratchSupC;
                 for (let a = 0; a < nc; a++) {
                     if (t.colCount[a] === 0) { dropCol[a] = 1; changed = true; continue; }
                     const ca = colCost[a]!;
                     const na = cc[a]!;
-                    sup.fill(0xffffffff);
+                    sup.fill(0xffffffff, 0, cw);
                     const co = a * rw;
                     for (let k = 0; k < rw; k++) {
                         let y = t.colBits[co + k]!;
@@ -218,9 +251,7 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
     };
 
     /** Maximal independent set of rows (greedy, shortest rows first): a lower bound. */
-    const lowerBound = (t: Table): number => {
-        const nr = t.rows.length;
-        const order = Array.from({ length: nr }, (_, i) => i).sort((a, b) => t.rowCount[a]! - t.rowCount[b]! || a - b);
+    const lowerBound = (t: Table, order: Int32Array): number => {
         const cw = t.cw;
         const used = new Uint32Array(cw);
         let bound = 0;
@@ -247,7 +278,7 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
     };
 
     /** True when the child (rows outside column bits at colBits[o…], columns outside `banned`) cannot beat bestCost. */
-    const childBoundExceeded = (t: Table, order: number[], colBits: Uint32Array, o: number, banned: Uint32Array, base: number): boolean => {
+    const childBoundExceeded = (t: Table, order: Int32Array, colBits: Uint32Array, o: number, banned: Uint32Array, base: number): boolean => {
         if (base >= bestCost - EPS) return true;
         const cw = t.cw;
         const used = new Uint32Array(cw);
@@ -294,7 +325,9 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
             best = [...chosen];
             return;
         }
-        if (acc.cost + lowerBound(t) >= bestCost - EPS) return;
+        // Rows by ascending column count: the bound's order, reused by the children's bounds.
+        const rowOrder = rowsByCount(t, new Int32Array(t.rows.length));
+        if (acc.cost + lowerBound(t, rowOrder) >= bestCost - EPS) return;
         // Branch on a shortest row; each child takes one of its columns, later children may
         // not take the columns of earlier ones.
         let row = 0;
@@ -309,7 +342,6 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
         const excluded = new Uint8Array(t.cols.length);
         // Columns a child may not use (earlier siblings' and its own), as a mask over local columns.
         const banned = new Uint32Array(t.cw);
-        const rowOrder = Array.from({ length: t.rows.length }, (_, i) => i).sort((a, b) => t.rowCount[a]! - t.rowCount[b]! || a - b);
         for (const j of options) {
             const c = t.cols[j]!;
             const colRowsHere = t.colBits;

@@ -47,17 +47,23 @@ function primesOf(f: Cube[], nvars: number, masks: Uint32Array, b: PrimeBudget):
     const low = 0x55555555;
     const cand: Cube[] = [];
     if (words === 1) {
+        // One-word cubes: candidates as plain numbers, a cube allocated only for those kept
+        // (same candidates in the same order as the general path, so the same primes).
         const m = masks[0]! & low;
+        const vals: number[] = [];
         for (const a of p0) {
             const a0 = a[0]!;
             for (const c of p1) {
-                const x = a0 & c[0]!;
+                const x = (a0 & c[0]!) >>> 0;
                 if (((x | (x >>> 1)) & m) !== m) continue;
-                const r = new Uint32Array(1);
-                r[0] = x;
-                cand.push(r);
+                vals.push(x);
             }
         }
+        for (const a of p0) vals.push((a[0]! & ~(2 << shift)) >>> 0);
+        for (const c of p1) vals.push((c[0]! & ~(1 << shift)) >>> 0);
+        const kept = containmentFreeWord(vals, b);
+        if (kept.length > b.limit) throw new TooManyPrimes();
+        return kept;
     } else {
         for (const a of p0) for (const c of p1) {
             let ok = true;
@@ -77,6 +83,34 @@ function primesOf(f: Cube[], nvars: number, masks: Uint32Array, b: PrimeBudget):
     const r = containmentFree(cand, words, b);
     if (r.length > b.limit) throw new TooManyPrimes();
     return r;
+}
+
+/** containmentFree for one-word cubes given as numbers: the kept ones, in the same order, as cubes. */
+function containmentFreeWord(vals: readonly number[], b: PrimeBudget): Cube[] {
+    const low = 0x55555555;
+    const size = new Float64Array(vals.length);
+    for (let i = 0; i < vals.length; i++) {
+        const v = vals[i]!;
+        let x = v & (v >>> 1) & low;
+        let n = 0;
+        while (x) { x &= x - 1; n++; }
+        size[i] = (1000 - n) * 4194304 + i; // most free variables first
+    }
+    size.sort();
+    const keptVals = new Uint32Array(Math.min(vals.length, b.limit + 1));
+    const kept: Cube[] = [];
+    let nk = 0;
+    for (let k = 0; k < size.length; k++) {
+        if ((k & 1023) === 0 && cpuNow() > b.deadline) throw new TooManyPrimes();
+        const v = vals[size[k]! % 4194304]!;
+        let inside = false;
+        for (let j = 0; j < nk; j++) if (((keptVals[j]! & v) >>> 0) === v) { inside = true; break; }
+        if (inside) continue;
+        if (nk >= keptVals.length) throw new TooManyPrimes();
+        keptVals[nk++] = v;
+        kept.push(Uint32Array.of(v));
+    }
+    return kept;
 }
 
 /** singleCubeContainment with deadline and size checks (the merge can be large). */

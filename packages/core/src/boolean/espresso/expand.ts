@@ -43,6 +43,8 @@ export function expand(f: readonly Cube[], nvars: number, target: ExpandTarget, 
     const primes: Cube[] = [];
     const rowMasks = target.off ? new Uint32Array(target.off.length * words) : null;
     const scratch = target.off ? { active: new Int32Array(target.off.length), hits: new Int32Array(target.off.length) } : null;
+    // One-word OFF cubes as one flat array: read for every cube expanded.
+    const offWords = target.off && words === 1 ? Uint32Array.from(target.off, (o) => o[0]!) : null;
     let expired = false;
     for (const i of order) {
         if (covered[i]) continue;
@@ -51,7 +53,7 @@ export function expand(f: readonly Cube[], nvars: number, target: ExpandTarget, 
         if (expired) { primes.push(f[i]!); continue; }
         const p = target.off
             ? words === 1
-                ? expandAgainstOffWord(i, f, covered, target.off, rowMasks!, scratch!, masks)
+                ? expandAgainstOffWord(i, f, covered, offWords!, rowMasks!, scratch!, masks)
                 : expandAgainstOff(i, f, covered, target.off, rowMasks!, scratch!, masks, nvars)
             : expandByContainment(i, f, covered, target.care, masks, nvars, deadline);
         for (let j = 0; j < f.length; j++) {
@@ -83,6 +85,18 @@ function candidatesByDistance(i: number, f: readonly Cube[], covered: Uint8Array
         let n = 0;
         for (let w = 0; w < words; w++) n += popcount32(needBits(cur, d, w, masks[w]!));
         keys[k++] = n * 4194304 + j;
+    }
+    return keys.subarray(0, k).sort();
+}
+
+/** candidatesByDistance for one-word cubes (same keys, same order), without a cube per call. */
+function candidatesByDistanceWord(i: number, f: readonly Cube[], covered: Uint8Array, cur: number, mask: number): Float64Array {
+    const keys = new Float64Array(f.length);
+    let k = 0;
+    for (let j = 0; j < f.length; j++) {
+        if (covered[j] || j === i) continue;
+        const diff = f[j]![0]! & ~cur;
+        keys[k++] = popcount32((diff | (diff >>> 1)) & mask) * 4194304 + j;
     }
     return keys.subarray(0, k).sort();
 }
@@ -282,7 +296,7 @@ function expandByContainment(
 
 /** expandAgainstOff for one-word cubes (up to 16 variables): the same steps on plain numbers. */
 function expandAgainstOffWord(
-    i: number, f: readonly Cube[], covered: Uint8Array, off: readonly Cube[], rowMask: Uint32Array,
+    i: number, f: readonly Cube[], covered: Uint8Array, off: Uint32Array, rowMask: Uint32Array,
     scratch: { readonly active: Int32Array; readonly hits: Int32Array }, masks: Uint32Array,
 ): Cube {
     const mask = masks[0]!;
@@ -294,7 +308,7 @@ function expandAgainstOffWord(
     const nRows = off.length;
     let nActive = 0;
     for (let r = 0; r < nRows; r++) {
-        const x = c & off[r]![0]!;
+        const x = c & off[r]!;
         const m = ~(x | (x >>> 1)) & mask;
         if (m === 0) throw new Error('expand: a cube of the cover meets the OFF-set');
         rowMask[r] = m;
@@ -320,7 +334,7 @@ function expandAgainstOffWord(
     };
     settleRows();
     if (nActive > 0) {
-        for (const key of candidatesByDistance(i, f, covered, Uint32Array.of(cur), masks)) {
+        for (const key of candidatesByDistanceWord(i, f, covered, cur, mask)) {
             if (nActive === 0) break;
             const d = f[key % 4194304]![0]!;
             const diff = d & ~cur;

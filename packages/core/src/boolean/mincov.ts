@@ -91,17 +91,45 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
         return out;
     };
 
-    const build = (rows: number[], cols: number[], depth: number): Table => {
+    const parity: number[] = [];
+    /**
+     * The table of rows × cols. With `src`, rows and cols are subsequences of src's (in order),
+     * and each row's columns are read from src's bits — only the columns still alive — instead
+     * of the row's full column list. Two storage sets per depth, alternated, so that src may be
+     * the previous pass of the same node.
+     */
+    const build = (rows: number[], cols: number[], depth: number, src: Table | null): Table => {
         cols.forEach((c, i) => { localCol[c] = i; });
         rows.forEach((r, i) => { localRow[r] = i; });
         const cw = (cols.length + 31) >>> 5;
         const rw = (rows.length + 31) >>> 5;
-        const pool = pools[depth] ??= { rowBits: new Uint32Array(0), colBits: new Uint32Array(0), rowCount: new Int32Array(0), colCount: new Int32Array(0) };
+        const slot = 2 * depth + (parity[depth] = (parity[depth] ?? 0) ^ 1);
+        const pool = pools[slot] ??= { rowBits: new Uint32Array(0), colBits: new Uint32Array(0), rowCount: new Int32Array(0), colCount: new Int32Array(0) };
         const rowBits = pool.rowBits = grow(pool.rowBits, rows.length * cw, (n) => new Uint32Array(n));
         const colBits = pool.colBits = grow(pool.colBits, cols.length * rw, (n) => new Uint32Array(n));
         const rowCount = pool.rowCount = grow(pool.rowCount, rows.length, (n) => new Int32Array(n));
         const colCount = pool.colCount = grow(pool.colCount, cols.length, (n) => new Int32Array(n));
-        for (let i = 0; i < rows.length; i++) {
+        if (src !== null) {
+            const scw = src.cw;
+            let io = 0;
+            for (let i = 0; i < rows.length; i++) {
+                while (src.rows[io] !== rows[i]) io++;
+                const so = io * scw;
+                for (let w = 0; w < scw; w++) {
+                    let y = src.rowBits[so + w]!;
+                    while (y !== 0) {
+                        const b = y & -y;
+                        y ^= b;
+                        const j = localCol[src.cols[w * 32 + 31 - Math.clz32(b)]!]!;
+                        if (j < 0) continue;
+                        rowBits[i * cw + (j >>> 5)]! |= 1 << (j & 31);
+                        colBits[j * rw + (i >>> 5)]! |= 1 << (i & 31);
+                        rowCount[i]!++;
+                        colCount[j]!++;
+                    }
+                }
+            }
+        } else for (let i = 0; i < rows.length; i++) {
             for (const c of p.rows[rows[i]!]!) {
                 const j = localCol[c]!;
                 if (j < 0) continue;
@@ -120,12 +148,14 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
      * Applies the reductions until nothing changes. Returns the table left (possibly empty),
      * or null when a row has no column left. Chosen columns go to `chosen`, their cost to acc.
      */
-    const reduceTable = (rows: number[], cols: number[], chosen: number[], acc: { cost: number }, depth: number): Table | null => {
+    const reduceTable = (rows: number[], cols: number[], chosen: number[], acc: { cost: number }, depth: number, from: Table | null): Table | null => {
+        let src = from;
         // Dominance checks are quadratic; past this many word operations they are skipped.
         const effort = 8_000_000;
         for (;;) {
             if (cpuNow() > deadline) throw new OutOfTime();
-            const t = build(rows, cols, depth);
+            const t = build(rows, cols, depth, src);
+            src = t;
             const nr = t.rows.length;
             const nc = t.cols.length;
             const cw = (nc + 31) >>> 5;
@@ -314,10 +344,10 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
         return false;
     };
 
-    const search = (rows: number[], cols: number[], chosen: number[], cost: number, depth: number): void => {
+    const search = (rows: number[], cols: number[], chosen: number[], cost: number, depth: number, parent: Table | null): void => {
         if (cpuNow() > deadline) throw new OutOfTime();
         const acc = { cost };
-        const t = reduceTable(rows, cols, chosen, acc, depth);
+        const t = reduceTable(rows, cols, chosen, acc, depth, parent);
         if (t === null) return;
         if (acc.cost >= bestCost - EPS) return;
         if (t.rows.length === 0) {
@@ -360,7 +390,7 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
             const childCols = t.cols.filter((_, k) => k !== j && !excluded[k]);
             const base = chosen.length;
             chosen.push(c);
-            search(childRows, childCols, chosen, acc.cost + p.cost[c]!, depth + 1);
+            search(childRows, childCols, chosen, acc.cost + p.cost[c]!, depth + 1, t);
             chosen.length = base;
             excluded[j] = 1;
         }
@@ -368,7 +398,7 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
 
     const chosenRoot: number[] = [];
     try {
-        search(p.rows.map((_, i) => i), Array.from({ length: nCols }, (_, j) => j), chosenRoot, 0, 0);
+        search(p.rows.map((_, i) => i), Array.from({ length: nCols }, (_, j) => j), chosenRoot, 0, 0, null);
         return { columns: best, cost: bestCost, complete: true, work };
     } catch (e) {
         if (e instanceof OutOfTime) return { columns: best, cost: bestCost, complete: false, work };

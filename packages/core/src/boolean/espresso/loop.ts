@@ -47,10 +47,15 @@ export function espressoHeuristic(on: readonly Cube[], dc: readonly Cube[], nvar
     const off = complementWithin(care, nvars, maxOff, Math.min(options.deadline, cpuNow() + 1000));
     const target: ExpandTarget = { off, care };
     if (f.length === 0) return { cover: [], target };
-    f = expand(f, nvars, target, options.deadline);
-    if (cpuNow() >= options.deadline) return { cover: f, target, essentialCount: 0 };
+    // Only the containment path (no affordable OFF-set: wide functions) can run long enough to need
+    // the deadline inside one pass; with an OFF-set the first pass always completes, which keeps
+    // small functions' covers independent of how loaded the machine is.
+    const interruptible = off === null;
+    const passDeadline = interruptible ? options.deadline : Infinity;
+    f = expand(f, nvars, target, passDeadline);
+    if (cpuNow() >= passDeadline) return { cover: f, target, essentialCount: 0 };
     f = irredundant(f, dc, nvars);
-    if (cpuNow() >= options.deadline) return { cover: f, target, essentialCount: 0 };
+    if (cpuNow() >= passDeadline) return { cover: f, target, essentialCount: 0 };
     // Essential primes are in every minimal cover: set them aside as don't-cares for the loop,
     // which then works on fewer cubes.
     const essentials = essentialPrimes(f, dc, nvars);
@@ -68,7 +73,7 @@ function improve(f: Cube[], dc: readonly Cube[], nvars: number, target: ExpandTa
     let cost = coverCost(f, nvars);
     for (;;) {
         while (cpuNow() < options.deadline) {
-            const g = irredundant(expand(reduce(f, dc, nvars), nvars, target, options.deadline), dc, nvars);
+            const g = irredundant(expand(reduce(f, dc, nvars), nvars, target, target.off === null ? options.deadline : Infinity), dc, nvars);
             const gc = coverCost(g, nvars);
             if (!cheaper(gc, cost)) break;
             f = g;

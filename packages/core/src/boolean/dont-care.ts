@@ -4,16 +4,7 @@
  * that covers it.
  */
 import type { Cube } from './cube.js';
-import { wordMask, wordsFor } from './cube.js';
-
-function meets(a: Cube, b: Cube, nvars: number): boolean {
-    for (let w = 0; w < a.length; w++) {
-        const x = a[w]! & b[w]!;
-        const m = wordMask(nvars, w) & 0x55555555;
-        if (((x | (x >>> 1)) & m) !== m) return false;
-    }
-    return true;
-}
+import { intersects, wordMask, wordsFor } from './cube.js';
 
 /**
  * dc # on as disjoint pieces; past `maxCubes` pieces it falls back to the DC cubes that miss
@@ -23,10 +14,10 @@ export function dontCaresOutside(dc: readonly Cube[], on: readonly Cube[], nvars
     const words = wordsFor(nvars);
     let cur: Cube[] = [...dc];
     for (const o of on) {
-        if (!cur.some((d) => meets(d, o, nvars))) continue;
+        if (!cur.some((d) => intersects(d, o, nvars))) continue;
         const next: Cube[] = [];
         for (const d of cur) {
-            if (!meets(d, o, nvars)) { next.push(d); continue; }
+            if (!intersects(d, o, nvars)) { next.push(d); continue; }
             // d − o: one piece per literal of o where d is free, fixing the earlier ones to o.
             let prefix = d.slice();
             for (let w = 0; w < words; w++) {
@@ -46,7 +37,7 @@ export function dontCaresOutside(dc: readonly Cube[], on: readonly Cube[], nvars
             }
             // what is left of d (prefix) lies inside o: dropped.
         }
-        if (next.length > maxCubes) return dc.filter((d) => !on.some((x) => meets(d, x, nvars)));
+        if (next.length > maxCubes) return dc.filter((d) => !on.some((x) => intersects(d, x, nvars)));
         cur = next;
     }
     return cur;

@@ -7,7 +7,7 @@
  * lazily (see exactCover), so wide functions with few primes never enumerate minterms.
  */
 import { cpuNow } from './clock.js';
-import { type Cube, ONE, ZERO, isUniverse, setVarInPlace, universe, wordMask, wordsFor } from './cube.js';
+import { type Cube, ONE, ZERO, contains, intersects, isUniverse, setVarInPlace, universe, wordMask, wordsFor } from './cube.js';
 import { cubeLiteralCount } from './espresso/expand.js';
 import { cubeCofactor, literalCofactor, mostBinate, mostFrequent, phaseCounts, singleCubeContainment } from './espresso/unate.js';
 import { solveCover } from './mincov.js';
@@ -44,7 +44,7 @@ export function exactCover(
     const allP = allPrimes(care, nvars, limits.maxPrimes, limits.deadline);
     if (allP === null) return null;
     const onSet = singleCubeContainment(on, words);
-    const primes = allP.filter((p) => onSet.some((c) => meets(p, c, nvars)));
+    const primes = allP.filter((p) => onSet.some((c) => intersects(p, c, nvars)));
     const cost = primes.map((p) => weight + cubeLiteralCount(p, nvars));
     // Rows are added lazily: a relaxed table (fewer rows) has an optimum no dearer than the
     // real one, so when its optimum covers the whole ON-set it is optimal; otherwise an ON
@@ -53,7 +53,7 @@ export function exactCover(
     const keys = new Set<string>();
     const addRow = (piece: Cube): void => {
         const cols: number[] = [];
-        for (let j = 0; j < primes.length; j++) if (inside(piece, primes[j]!, words)) cols.push(j);
+        for (let j = 0; j < primes.length; j++) if (contains(primes[j]!, piece)) cols.push(j);
         if (cols.length === 0) throw new Error('exact: a piece of the ON-set lies in no prime');
         const key = cols.join(',');
         if (!keys.has(key)) { keys.add(key); rows.push(cols); }
@@ -83,8 +83,7 @@ export function exactCover(
 
 /** True when c lies inside or outside every prime (so "covered" means "inside one prime"). */
 function atomic(c: Cube, primes: readonly Cube[], nvars: number): boolean {
-    const words = c.length;
-    for (const p of primes) if (!inside(c, p, words) && meets(c, p, nvars)) return false;
+    for (const p of primes) if (!contains(p, c) && intersects(c, p, nvars)) return false;
     return true;
 }
 
@@ -113,16 +112,3 @@ export function holeIn(f: readonly Cube[], nvars: number): Cube | null {
     return null;
 }
 
-function inside(small: Cube, big: Cube, words: number): boolean {
-    for (let w = 0; w < words; w++) if (((big[w]! & small[w]!) >>> 0) !== small[w]) return false;
-    return true;
-}
-
-function meets(a: Cube, b: Cube, nvars: number): boolean {
-    for (let w = 0; w < a.length; w++) {
-        const x = a[w]! & b[w]!;
-        const m = wordMask(nvars, w) & 0x55555555;
-        if (((x | (x >>> 1)) & m) !== m) return false;
-    }
-    return true;
-}

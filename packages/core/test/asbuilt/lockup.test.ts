@@ -6,9 +6,8 @@ import { explicitSafety, symbolicSafety } from '../../src/asbuilt/safety.js';
 import { asBuiltFindings, recoveryReport } from '../../src/asbuilt/report.js';
 import type { SynthesisOptions } from '../../src/synthesis/synthesize.js';
 import { mulberry32, randomMachine } from '../support/random-machine.js';
-import { characteristicOracle, evalCover } from '../synthesis/oracle.js';
+import { asBuiltNextCode } from '../synthesis/oracle.js';
 
-const PORTS: Record<FlipFlopKind, readonly string[]> = { D: ['d'], T: ['t'], JK: ['j', 'k'], SR: ['s', 'r'] };
 
 /**
  * Brute-force oracle, independent of the code under test: the as-built next code from the
@@ -19,16 +18,7 @@ const PORTS: Record<FlipFlopKind, readonly string[]> = { D: ['d'], T: ['t'], JK:
 function bruteForce(r: SynthesisResult) {
     const w = r.assignment.width;
     const nI = r.inputCount;
-    const byName = new Map(r.equations.map((e) => [e.name, e.cover]));
-    const next = (code: number, x: number): number => {
-        const bits = [...Array.from({ length: nI }, (_, v) => (x >> v) & 1), ...Array.from({ length: w }, (_, i) => (code >> i) & 1)];
-        let out = 0;
-        for (let i = 0; i < w; i++) {
-            const [a, b] = PORTS[r.flipflop].map((p) => (evalCover(byName.get(`${p}${i}`)!, bits) ? 1 : 0));
-            if (characteristicOracle(r.flipflop, (code >> i) & 1, a!, b ?? 0)) out |= 1 << i;
-        }
-        return out;
-    };
+    const next = asBuiltNextCode(r);
     const used = new Set(r.assignment.codes.map((c) => parseInt(c, 2)));
     const succ: number[][] = Array.from({ length: 2 ** w }, (_, u) => Array.from({ length: 2 ** nI }, (_, x) => next(u, x)));
     // Codes that can stay unused forever: those from which a cycle of unused codes is reachable through unused codes.

@@ -15,26 +15,16 @@ import { synthesize } from '../../src/synthesis/run.js';
 import type { SynthesisOptions } from '../../src/synthesis/synthesize.js';
 import type { SynthesisResult } from '../../src/synthesis/types.js';
 import { asBuiltFindings } from '../../src/asbuilt/report.js';
-import { characteristicOracle, evalCover } from '../synthesis/oracle.js';
+import { asBuiltNextCode } from '../synthesis/oracle.js';
 import { mulberry32, randomMachine } from '../support/random-machine.js';
 
-const PORTS: Record<FlipFlopKind, readonly string[]> = { D: ['d'], T: ['t'], JK: ['j', 'k'], SR: ['s', 'r'] };
 const SAME: SynthesisOptions = { quick: false, minimizeBudgetMs: 5000, deadline: undefined, budgetMs: 200 };
 
 /** Successors of every code, the unused codes, and the lock-up cycles' relation to code 0. */
 function oracle(r: SynthesisResult) {
     const w = r.assignment.width;
     const nI = r.inputCount;
-    const byName = new Map(r.equations.map((e) => [e.name, e.cover]));
-    const next = (code: number, x: number): number => {
-        const bits = [...Array.from({ length: nI }, (_, v) => (x >> v) & 1), ...Array.from({ length: w }, (_, i) => (code >> i) & 1)];
-        let out = 0;
-        for (let i = 0; i < w; i++) {
-            const [a, b] = PORTS[r.flipflop].map((p) => (evalCover(byName.get(`${p}${i}`)!, bits) ? 1 : 0));
-            if (characteristicOracle(r.flipflop, (code >> i) & 1, a!, b ?? 0)) out |= 1 << i;
-        }
-        return out;
-    };
+    const next = asBuiltNextCode(r);
     const used = new Set(r.assignment.codes.map((c) => parseInt(c, 2)));
     const succ = Array.from({ length: 2 ** w }, (_, u) => new Set(Array.from({ length: 2 ** nI }, (_, x) => next(u, x))));
     /** Unused codes reachable from u in one or more steps through unused codes. */
@@ -108,15 +98,7 @@ function checkAgainstOracle(machine: Machine, method: 'explicit' | 'symbolic'): 
 }
 
 function nextOf(r: SynthesisResult, code: number, x: number): number {
-    const w = r.assignment.width, nI = r.inputCount;
-    const byName = new Map(r.equations.map((e) => [e.name, e.cover]));
-    const bits = [...Array.from({ length: nI }, (_, v) => (x >> v) & 1), ...Array.from({ length: w }, (_, i) => (code >> i) & 1)];
-    let out = 0;
-    for (let i = 0; i < w; i++) {
-        const [a, b] = PORTS[r.flipflop].map((p) => (evalCover(byName.get(`${p}${i}`)!, bits) ? 1 : 0));
-        if (characteristicOracle(r.flipflop, (code >> i) & 1, a!, b ?? 0)) out |= 1 << i;
-    }
-    return out;
+    return asBuiltNextCode(r)(code, x);
 }
 
 describe('reset-code and lockup: one finding per defect', () => {

@@ -6,6 +6,7 @@
  * characteristic equations (from memory: D Q+=D, T Q+=Q⊕T, JK Q+=JQ'+K'Q, SR Q+=S+R'Q).
  */
 import type { Emit, FlipFlopKind, Machine } from '../../src/model/machine.js';
+import type { SynthesisResult } from '../../src/synthesis/types.js';
 import { evalGuard } from '../support/random-machine.js';
 
 /** Value of a sum of products at a full assignment (bits[v] = variable v). */
@@ -43,6 +44,29 @@ export function characteristicOracle(kind: FlipFlopKind, q: number, a: number, b
         case 'JK': return (a & (1 - q)) | ((1 - b) & q);
         case 'SR': return a | ((1 - b) & q);
     }
+}
+
+/** The excitation inputs of each flip-flop type, in the order characteristicOracle takes them. */
+const PORTS: Record<FlipFlopKind, readonly string[]> = { D: ['d'], T: ['t'], JK: ['j', 'k'], SR: ['s', 'r'] };
+
+/**
+ * The as-built next code of every code (used or not) under an input vector: each state bit from
+ * the synthesized excitation covers, evaluated on their cube bits, through the characteristic
+ * equation. Inputs `x` and codes are integers, bit v = variable v (code bit i = q{i}).
+ */
+export function asBuiltNextCode(r: SynthesisResult): (code: number, x: number) => number {
+    const w = r.assignment.width;
+    const nI = r.inputCount;
+    const byName = new Map(r.equations.map((e) => [e.name, e.cover]));
+    return (code, x) => {
+        const bits = [...Array.from({ length: nI }, (_, v) => (x >> v) & 1), ...Array.from({ length: w }, (_, i) => (code >> i) & 1)];
+        let out = 0;
+        for (let i = 0; i < w; i++) {
+            const [a, b] = PORTS[r.flipflop].map((p) => (evalCover(byName.get(`${p}${i}`)!, bits) ? 1 : 0));
+            if (characteristicOracle(r.flipflop, (code >> i) & 1, a!, b ?? 0)) out |= 1 << i;
+        }
+        return out;
+    };
 }
 
 export interface ModelStep {

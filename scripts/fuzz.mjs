@@ -7,6 +7,7 @@
 //   node scripts/fuzz.mjs --long     much longer local run (npm run fuzz)
 //   --count N  --seed S  --jobs J    override the defaults
 import { build } from 'esbuild';
+import { scriptBundleOptions } from './script-bundle.mjs';
 import { Worker } from 'node:worker_threads';
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
@@ -36,18 +37,7 @@ await build({
     entryPoints: { worker: join(root, 'scripts/fuzz-worker.ts'), lib: join(root, 'scripts/fuzz-lib.ts') },
     outdir: out,
     outExtension: { '.js': '.mjs' },
-    bundle: true,
-    platform: 'node',
-    target: 'node20',
-    format: 'esm',
-    logLevel: 'warning',
-    packages: 'external',
-    alias: {
-        '@detent/core': join(root, 'packages/core/src/index.ts'),
-        '@detent/language': join(root, 'packages/language/src/index.ts'),
-        '@detent/cli': join(root, 'packages/cli/src/index.ts'),
-    },
-    nodePaths: [join(root, 'node_modules')],
+    ...scriptBundleOptions(root),
 });
 const lib = await import(pathToFileURL(join(out, 'lib.mjs')).href);
 

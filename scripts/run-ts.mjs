@@ -1,6 +1,7 @@
 #!/usr/bin/env node
 // Runs a TypeScript script (benchmarks, fuzzing): bundles it with esbuild into a temporary ESM file, then imports it.
 import { build } from 'esbuild';
+import { scriptBundleOptions } from './script-bundle.mjs';
 import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { join, resolve, dirname } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -19,19 +20,8 @@ const outfile = join(dir, 'script.mjs');
 await build({
     entryPoints: [resolve(file)],
     outfile,
-    bundle: true,
-    platform: 'node',
-    target: 'node20',
-    format: 'esm',
+    ...scriptBundleOptions(root),
     sourcemap: 'inline',
-    logLevel: 'warning',
-    packages: 'external',
-    alias: {
-        '@detent/core': join(root, 'packages/core/src/index.ts'),
-        '@detent/language': join(root, 'packages/language/src/index.ts'),
-        '@detent/cli': join(root, 'packages/cli/src/index.ts'),
-    },
-    nodePaths: [join(root, 'node_modules')],
 });
 process.argv = [process.argv[0], resolve(file), ...rest];
 try {

@@ -85,12 +85,17 @@ export function tautWord(vals: Uint32Array, mask: number): boolean {
  * cofactor goes straight there, without an intermediate array.
  */
 export function tautWordFill(capacity: number, mask: number, fill: (out: Uint32Array, start: number) => number): boolean {
+    return onScratch(capacity, fill, (start, len) => tautAt(start, len, mask));
+}
+
+/** Lets `fill` write a cover onto the scratch stack, runs `solve` on it, and pops it again. */
+function onScratch<T>(capacity: number, fill: (out: Uint32Array, start: number) => number, solve: (start: number, len: number) => T): T {
     const base = top;
     reserve(capacity);
     const len = fill(arena, base);
     top = base + len;
     try {
-        return tautAt(base, len, mask);
+        return solve(base, len);
     } finally {
         top = base;
     }
@@ -212,15 +217,7 @@ export function scccWord(vals: Uint32Array, mask: number): number {
  * the scratch stack: REDUCE asks it once per cube. Same recursion as scccWord.
  */
 export function scccWordFill(capacity: number, mask: number, fill: (out: Uint32Array, start: number) => number): number {
-    const base = top;
-    reserve(capacity);
-    const len = fill(arena, base);
-    top = base + len;
-    try {
-        return scccAt(base, len, mask);
-    } finally {
-        top = base;
-    }
+    return onScratch(capacity, fill, (start, len) => scccAt(start, len, mask));
 }
 
 function scccAt(start: number, len: number, mask: number): number {

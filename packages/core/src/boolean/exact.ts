@@ -10,6 +10,7 @@ import { cpuNow } from './clock.js';
 import { type Cube, ONE, ZERO, contains, intersects, isUniverse, setVarInPlace, universe, wordMask, wordsFor } from './cube.js';
 import { cubeLiteralCount } from './espresso/expand.js';
 import { cubeCofactor, literalCofactor, mostBinate, mostFrequent, phaseCounts, singleCubeContainment } from './espresso/unate.js';
+import { type CoverCost } from './espresso/loop.js';
 import { solveCover } from './mincov.js';
 import { allPrimes } from './primes.js';
 
@@ -34,18 +35,22 @@ export function productWeight(nvars: number, maxProducts: number): number {
 }
 
 /**
- * Searches for a cover of `on` by primes of `care` cheaper than `upper` (a cost in the same
- * units as `weight` per product + literals), or returns tractable = false via null.
+ * Searches for a cover of `on` by primes of `care` cheaper than `upper` (fewer products, or as
+ * many with fewer literals), or returns null when the primes or the table exceed the limits.
+ *
+ * Lexicographic, in two searches: the fewest products (unit costs, where column dominance and
+ * integer rounding of the bound are strongest), then the fewest literals among covers of that
+ * many products (a column-count limit). One weighted search (a product outweighing every
+ * literal) would rank the same covers, but its bound says little about literals.
  */
-export function exactCover(
-    on: readonly Cube[], care: readonly Cube[], nvars: number, weight: number, upper: number, limits: ExactLimits,
-): ExactOutcome | null {
+export function exactCover(on: readonly Cube[], care: readonly Cube[], nvars: number, upper: CoverCost, limits: ExactLimits): ExactOutcome | null {
     const words = wordsFor(nvars);
     const allP = allPrimes(care, nvars, limits.maxPrimes, limits.deadline);
     if (allP === null) return null;
     const onSet = singleCubeContainment(on, words);
     const primes = allP.filter((p) => onSet.some((c) => intersects(p, c, nvars)));
-    const cost = primes.map((p) => weight + cubeLiteralCount(p, nvars));
+    const literals = primes.map((p) => cubeLiteralCount(p, nvars));
+    const unit = primes.map(() => 1);
     // Rows are added lazily: a relaxed table (fewer rows) has an optimum no dearer than the
     // real one, so when its optimum covers the whole ON-set it is optimal; otherwise an ON
     // minterm the optimum misses becomes a new row and the table is solved again.
@@ -59,14 +64,9 @@ export function exactCover(
         if (!keys.has(key)) { keys.add(key); rows.push(cols); }
     };
     for (const c of onSet) addRow(atomic(c, primes, nvars) ? c : firstMinterm(c, nvars));
-    // One work budget for all rounds of the lazy-row loop.
-    let workLeft = limits.maxWork ?? Infinity;
-    for (let round = 0; ; round++) {
-        if (rows.length > limits.maxRows) return null;
-        const sol = solveCover({ rows, columns: primes.length, cost }, upper, limits.deadline, workLeft);
-        workLeft -= sol.work;
-        if (sol.columns === null) return { cover: null, proven: sol.complete };
-        const chosen = sol.columns.map((j) => primes[j]!);
+    /** Adds a row for every ON cube the columns leave partly bare; returns how many. */
+    const addMissing = (columns: readonly number[]): number => {
+        const chosen = columns.map((j) => primes[j]!);
         let missing = 0;
         for (const c of onSet) {
             const hole = holeIn(cubeCofactor(chosen, c, nvars), nvars);
@@ -76,9 +76,31 @@ export function exactCover(
             addRow(firstMinterm(m, nvars));
             missing++;
         }
-        if (missing === 0) return { cover: chosen, proven: sol.complete };
-        if (!sol.complete || cpuNow() > limits.deadline) return { cover: null, proven: false };
-    }
+        return missing;
+    };
+    // One work budget for every round of both searches.
+    let workLeft = limits.maxWork ?? Infinity;
+    /** Solves the table (growing it) until the optimum covers the ON-set; null when out of limits. */
+    const solve = (cost: readonly number[], bound: number, maxColumns?: number): { columns: number[] | null; complete: boolean } | null => {
+        for (;;) {
+            if (rows.length > limits.maxRows) return null;
+            const sol = solveCover({ rows, columns: primes.length, cost, maxColumns }, bound, limits.deadline, workLeft);
+            workLeft -= sol.work;
+            if (sol.columns === null) return { columns: null, complete: sol.complete };
+            if (addMissing(sol.columns) === 0) return { columns: sol.columns, complete: sol.complete };
+            if (!sol.complete || cpuNow() > limits.deadline) return { columns: null, complete: false };
+        }
+    };
+    const first = solve(unit, upper.products);
+    if (first === null) return null;
+    // Without a cover of fewer products, the upper bound's product count is the fewest (when
+    // the search completed) and its literal count the one to beat.
+    const products = first.columns?.length ?? upper.products;
+    const literalBound = first.columns ? first.columns.reduce((s, j) => s + literals[j]!, 0) : upper.literals;
+    const second = workLeft > 0 ? solve(literals, literalBound, products) : { columns: null, complete: false };
+    if (second === null) return { cover: first.columns?.map((j) => primes[j]!) ?? null, proven: false };
+    const best = second.columns ?? first.columns;
+    return { cover: best?.map((j) => primes[j]!) ?? null, proven: first.complete && second.complete };
 }
 
 /** True when c lies inside or outside every prime (so "covered" means "inside one prime"). */

@@ -10,12 +10,15 @@
  * columns of a shortest row, excluding earlier siblings' columns.
  */
 import { cpuNow } from './clock.js';
+import { type CoverView, greedyCover, lagrangianBound, roundUpBound } from './mincov-lagrangian.js';
 
 export interface CoverProblem {
     /** For every row, the columns that cover it. */
     readonly rows: readonly (readonly number[])[];
     readonly columns: number;
     readonly cost: readonly number[];
+    /** At most this many columns (default: no limit). */
+    readonly maxColumns?: number;
 }
 
 export interface CoverSolution {
@@ -280,119 +283,156 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
         }
     };
 
-    /** Maximal independent set of rows (greedy, shortest rows first): a lower bound. */
-    const lowerBound = (t: Table, order: Int32Array): number => {
-        const cw = t.cw;
-        const used = new Uint32Array(cw);
-        let bound = 0;
-        for (const i of order) {
-            const bits = t.rowBits;
-            const o = i * cw;
-            let clash = false;
-            for (let w = 0; w < cw; w++) if ((bits[o + w]! & used[w]!) !== 0) { clash = true; break; }
-            if (clash) continue;
-            let m = Infinity;
-            for (let w = 0; w < cw; w++) {
-                used[w] = (used[w]! | bits[o + w]!) >>> 0;
-                let y = bits[o + w]!;
-                while (y !== 0) {
-                    const b = y & -y;
-                    const c = p.cost[t.cols[w * 32 + 31 - Math.clz32(b)]!]!;
-                    if (c < m) m = c;
-                    y ^= b;
-                }
-            }
-            bound += m;
-        }
-        return bound;
-    };
+    // Row multipliers of the Lagrangian bound, by global row: a node starts from its parent's.
+    const uRow = new Float64Array(p.rows.length);
+    p.rows.forEach((cols, r) => {
+        let m = Infinity;
+        for (const c of cols) m = Math.min(m, p.cost[c]! / Math.max(1, colRows[c]!.length));
+        uRow[r] = Number.isFinite(m) ? m : 0;
+    });
+    const integral = p.cost.every((c) => Number.isInteger(c));
+    const maxColumns = p.maxColumns ?? Infinity;
+    // The multiplier of the column-count limit, carried from node to node like uRow.
+    const mu = { value: 0 };
 
-    /** True when the child (rows outside column bits at colBits[o…], columns outside `banned`) cannot beat bestCost. */
-    const childBoundExceeded = (t: Table, order: Int32Array, colBits: Uint32Array, o: number, banned: Uint32Array, base: number): boolean => {
-        if (base >= bestCost - EPS) return true;
-        const cw = t.cw;
-        const used = new Uint32Array(cw);
-        const bits = t.rowBits;
-        work += 200 + order.length * cw;
-        let bound = base;
-        for (const i of order) {
-            if ((colBits[o + (i >>> 5)]! >>> (i & 31)) & 1) continue;
-            const ro = i * cw;
-            let clash = false;
-            let empty = true;
-            for (let w = 0; w < cw; w++) {
-                const x = bits[ro + w]! & ~banned[w]!;
-                if (x !== 0) empty = false;
-                if ((x & used[w]!) !== 0) { clash = true; break; }
-            }
-            if (clash) continue;
-            if (empty) return true;
-            let m = Infinity;
-            for (let w = 0; w < cw; w++) {
-                let y = (bits[ro + w]! & ~banned[w]!) >>> 0;
-                used[w] = (used[w]! | y) >>> 0;
+    /** The table in compressed form, with its column costs and their range. */
+    const viewOf = (t: Table): CoverView & { cmin: number; cmax: number } => {
+        const nr = t.rows.length;
+        const nc = t.cols.length;
+        const colStart = new Int32Array(nc + 1);
+        for (let j = 0; j < nc; j++) colStart[j + 1] = colStart[j]! + t.colCount[j]!;
+        const colRow = new Int32Array(colStart[nc]!);
+        const rowStart = new Int32Array(nr + 1);
+        for (let i = 0; i < nr; i++) rowStart[i + 1] = rowStart[i]! + t.rowCount[i]!;
+        const rowCol = new Int32Array(rowStart[nr]!);
+        const fill = new Int32Array(nr);
+        const cost = new Float64Array(nc);
+        let cmin = Infinity;
+        let cmax = 0;
+        for (let j = 0; j < nc; j++) {
+            const c = p.cost[t.cols[j]!]!;
+            cost[j] = c;
+            if (c < cmin) cmin = c;
+            if (c > cmax) cmax = c;
+            let at = colStart[j]!;
+            const o = j * t.rw;
+            for (let k = 0; k < t.rw; k++) {
+                let y = t.colBits[o + k]!;
                 while (y !== 0) {
                     const b = y & -y;
-                    const cst = p.cost[t.cols[w * 32 + 31 - Math.clz32(b)]!]!;
-                    if (cst < m) m = cst;
                     y ^= b;
+                    const i = k * 32 + 31 - Math.clz32(b);
+                    colRow[at++] = i;
+                    rowCol[rowStart[i]! + fill[i]!++] = j;
                 }
             }
-            bound += m;
-            if (bound >= bestCost - EPS) return true;
         }
-        return false;
+        work += 2 * colStart[nc]! + nr + nc;
+        return { rowCount: nr, colCount: nc, colStart, colRow, rowStart, rowCol, cost, cmin, cmax };
     };
+    const round = (bound: number, v: { cmin: number; cmax: number }): number =>
+        integral ? roundUpBound(bound, v.cmin, v.cmax) : bound;
 
     const search = (rows: number[], cols: number[], chosen: number[], cost: number, depth: number, parent: Table | null): void => {
         if (cpuNow() > deadline) throw new OutOfTime();
         const acc = { cost };
-        const t = reduceTable(rows, cols, chosen, acc, depth, parent);
-        if (t === null) return;
-        if (acc.cost >= bestCost - EPS) return;
-        if (t.rows.length === 0) {
-            bestCost = acc.cost;
-            best = [...chosen];
-            return;
-        }
-        // Rows by ascending column count: the bound's order, reused by the children's bounds.
-        const rowOrder = rowsByCount(t, new Int32Array(t.rows.length));
-        if (acc.cost + lowerBound(t, rowOrder) >= bestCost - EPS) return;
-        // Branch on a shortest row; each child takes one of its columns, later children may
-        // not take the columns of earlier ones.
-        let row = 0;
-        for (let i = 1; i < t.rows.length; i++) if (t.rowCount[i]! < t.rowCount[row]!) row = i;
-        const bits = t.rowBits;
-        const options: number[] = [];
-        for (let w = 0; w < t.cw; w++) {
-            let y = bits[row * t.cw + w]!;
-            while (y !== 0) { const b = y & -y; options.push(w * 32 + 31 - Math.clz32(b)); y ^= b; }
-        }
-        options.sort((a, b) => p.cost[t.cols[a]!]! - p.cost[t.cols[b]!]! || t.colCount[b]! - t.colCount[a]! || a - b);
-        const excluded = new Uint8Array(t.cols.length);
-        // Columns a child may not use (earlier siblings' and its own), as a mask over local columns.
-        const banned = new Uint32Array(t.cw);
-        for (const j of options) {
-            const c = t.cols[j]!;
-            const colRowsHere = t.colBits;
-            const o = j * t.rw;
-            banned[j >>> 5]! |= 1 << (j & 31);
-            // Prune before building the child's table: a maximal independent set of the rows c
-            // leaves, over the columns the child may use, bounds the child from below (the
-            // reductions never lower a table's optimum), and a row with no usable column left
-            // makes the child infeasible. Such children could not be accepted by the search
-            // anyway, so the covers found are the same, only reached with less work.
-            if (childBoundExceeded(t, rowOrder, colRowsHere, o, banned, acc.cost + p.cost[c]!)) {
-                excluded[j] = 1;
-                continue;
+        let t = reduceTable(rows, cols, chosen, acc, depth, parent);
+        let view: CoverView & { cmin: number; cmax: number };
+        let bound: number;
+        let reduced: Float64Array;
+        // Bound, then fix columns by reduced cost and reduce again, until nothing is fixed.
+        for (let pass = 0; ; pass++) {
+            if (t === null) return;
+            if (acc.cost >= bestCost - EPS) return;
+            if (chosen.length > maxColumns || (chosen.length === maxColumns && t.rows.length > 0)) return;
+            if (t.rows.length === 0) {
+                bestCost = acc.cost;
+                best = [...chosen];
+                return;
             }
-            const childRows = t.rows.filter((_, i) => ((colRowsHere[o + (i >>> 5)]! >>> (i & 31)) & 1) === 0);
-            const childCols = t.cols.filter((_, k) => k !== j && !excluded[k]);
+            view = viewOf(t);
+            const u = new Float64Array(view.rowCount);
+            for (let i = 0; i < u.length; i++) u[i] = uRow[t.rows[i]!]!;
+            const budget = bestCost - acc.cost;
+            // The bound that prunes this node: a cover must cost at least `enough` more to lose.
+            let enough = budget;
+            if (integral && Number.isFinite(budget)) enough = budget - 1 + 1e-6;
+            const iterations = depth === 0 && pass === 0 ? 400 : 40;
+            const lag = lagrangianBound(view, u, iterations, Number.isFinite(budget) ? budget : view.cmax * view.rowCount, enough,
+                maxColumns - chosen.length, mu);
+            work += lag.work;
+            for (let i = 0; i < u.length; i++) uRow[t.rows[i]!] = u[i]!;
+            if (lag.optimal !== null) {
+                let c = acc.cost;
+                for (const j of lag.optimal) c += view.cost[j]!;
+                if (c < bestCost - EPS) { bestCost = c; best = [...chosen, ...lag.optimal.map((j) => t!.cols[j]!)]; }
+                return;
+            }
+            const greedy = greedyCover(view, lag.reduced);
+            work += greedy.work;
+            if (acc.cost + greedy.cost < bestCost - EPS && chosen.length + greedy.columns.length <= maxColumns) {
+                bestCost = acc.cost + greedy.cost;
+                best = [...chosen, ...greedy.columns.map((j) => t!.cols[j]!)];
+            }
+            if (work > maxWork) throw new OutOfTime();
+            bound = lag.bound;
+            reduced = lag.reduced;
+            if (acc.cost + round(bound, view) >= bestCost - EPS) return;
+            // A column whose reduced cost lifts the bound past the incumbent cannot be in a cheaper
+            // cover; one whose exclusion does must be in every cheaper cover.
+            const keep: number[] = [];
+            const forced: number[] = [];
+            for (let j = 0; j < view.colCount; j++) {
+                const r = reduced[j]!;
+                if (r >= 0 && acc.cost + round(bound + r, view) >= bestCost - EPS) continue;
+                if (r < 0 && acc.cost + round(bound - r, view) >= bestCost - EPS) { forced.push(j); continue; }
+                keep.push(j);
+            }
+            if (keep.length + forced.length === view.colCount && forced.length === 0) break;
+            let nextRows = t.rows;
+            if (forced.length > 0) {
+                const covered = new Uint8Array(view.rowCount);
+                for (const j of forced) {
+                    chosen.push(t.cols[j]!);
+                    acc.cost += view.cost[j]!;
+                    for (let k = view.colStart[j]!; k < view.colStart[j + 1]!; k++) covered[view.colRow[k]!] = 1;
+                }
+                nextRows = t.rows.filter((_, i) => !covered[i]);
+            }
+            t = reduceTable(nextRows, keep.map((j) => t!.cols[j]!), chosen, acc, depth, t);
+        }
+        const tt = t;
+        // Branch on a shortest row; each child takes one of its columns, later children may
+        // not take the columns of earlier ones. Children in order of reduced cost: the likeliest
+        // members of a cheap cover first.
+        let row = 0;
+        for (let i = 1; i < tt.rows.length; i++) if (tt.rowCount[i]! < tt.rowCount[row]!) row = i;
+        const options: number[] = [];
+        for (let q = view.rowStart[row]!; q < view.rowStart[row + 1]!; q++) options.push(view.rowCol[q]!);
+        options.sort((a, b) => reduced[a]! - reduced[b]! || a - b);
+        const saved = new Float64Array(tt.rows.length);
+        for (let i = 0; i < saved.length; i++) saved[i] = uRow[tt.rows[i]!]!;
+        const savedMu = mu.value;
+        const excluded = new Uint8Array(tt.cols.length);
+        // The parent's multipliers bound each child: taking j adds max(0, s_j), and every
+        // earlier sibling it may not take adds back what its negative reduced cost subtracted.
+        let bannedLift = 0;
+        for (const j of options) {
+            const r = reduced[j]!;
+            const childBound = bound + Math.max(0, r) + bannedLift;
+            bannedLift += Math.max(0, -r);
+            excluded[j] = 1;
+            if (acc.cost + round(childBound, view) >= bestCost - EPS) continue;
+            for (let i = 0; i < saved.length; i++) uRow[tt.rows[i]!] = saved[i]!;
+            mu.value = savedMu;
+            const c = tt.cols[j]!;
+            const o = j * tt.rw;
+            const childRows = tt.rows.filter((_, i) => ((tt.colBits[o + (i >>> 5)]! >>> (i & 31)) & 1) === 0);
+            const childCols = tt.cols.filter((_, k) => !excluded[k]);
             const base = chosen.length;
             chosen.push(c);
-            search(childRows, childCols, chosen, acc.cost + p.cost[c]!, depth + 1, t);
+            search(childRows, childCols, chosen, acc.cost + p.cost[c]!, depth + 1, tt);
             chosen.length = base;
-            excluded[j] = 1;
         }
     };
 

@@ -11,7 +11,7 @@ import { type Cube, isEmpty, wordMask, wordsFor } from './cube.js';
 import { cheaper, coverCost, espressoHeuristic, essentialPrimes } from './espresso/loop.js';
 import { singleCubeContainment } from './espresso/unate.js';
 import { dontCaresOutside } from './dont-care.js';
-import { exactCover, productWeight } from './exact.js';
+import { exactCover } from './exact.js';
 
 export { minimizeMulti, type MultiFunction, type MultiResult } from './multi-output.js';
 
@@ -68,10 +68,8 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
         && essentialPrimes(cover, dcCubes, nvars).length === cover.length
         && allPrime(cover, h.target.off, nvars)) return { cover, exact: true };
     const hc = coverCost(cover, nvars);
-    const weight = productWeight(nvars, hc.products);
-    const upper = hc.products * weight + hc.literals;
     const big = method === 'exact';
-    const outcome = exactCover(onCubes, h.target.care, nvars, weight, upper, {
+    const outcome = exactCover(onCubes, h.target.care, nvars, hc, {
         maxPrimes: big ? 1_000_000 : options.maxPrimes ?? 4000,
         maxRows: big ? 10_000_000 : options.maxRows ?? 20000,
         // The budget is a safety net; in 'auto' the search is bounded by work (deterministic).

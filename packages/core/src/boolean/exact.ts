@@ -37,11 +37,7 @@ export function productWeight(nvars: number, maxProducts: number): number {
 /**
  * Searches for a cover of `on` by primes of `care` cheaper than `upper` (fewer products, or as
  * many with fewer literals), or returns null when the primes or the table exceed the limits.
- *
- * Lexicographic, in two searches: the fewest products (unit costs, where column dominance and
- * integer rounding of the bound are strongest), then the fewest literals among covers of that
- * many products (a column-count limit). One weighted search (a product outweighing every
- * literal) would rank the same covers, but its bound says little about literals.
+ * The rows of the covering table are grown lazily from the ON cubes (see exactOverRows).
  */
 export function exactCover(on: readonly Cube[], care: readonly Cube[], nvars: number, upper: CoverCost, limits: ExactLimits): ExactOutcome | null {
     const words = wordsFor(nvars);
@@ -49,8 +45,6 @@ export function exactCover(on: readonly Cube[], care: readonly Cube[], nvars: nu
     if (allP === null) return null;
     const onSet = singleCubeContainment(on, words);
     const primes = allP.filter((p) => onSet.some((c) => intersects(p, c, nvars)));
-    const literals = primes.map((p) => cubeLiteralCount(p, nvars));
-    const unit = primes.map(() => 1);
     // Rows are added lazily: a relaxed table (fewer rows) has an optimum no dearer than the
     // real one, so when its optimum covers the whole ON-set it is optimal; otherwise an ON
     // minterm the optimum misses becomes a new row and the table is solved again.
@@ -78,29 +72,68 @@ export function exactCover(on: readonly Cube[], care: readonly Cube[], nvars: nu
         }
         return missing;
     };
+    return exactOverRows(primes, rows, nvars, upper, limits, addMissing);
+}
+
+/**
+ * The exact step over a complete covering table: `primes` (each meeting the ON-set) as
+ * columns and `rows` listing, per ON minterm, the primes containing it. With `upper` null the
+ * search starts from its own greedy cover.
+ */
+export function exactOverTable(primes: readonly Cube[], rows: number[][], nvars: number, upper: CoverCost | null, limits: ExactLimits): ExactOutcome | null {
+    return exactOverRows(primes, rows, nvars, upper, limits, () => 0);
+}
+
+function exactOverRows(
+    primes: readonly Cube[], rows: number[][], nvars: number, upper: CoverCost | null, limits: ExactLimits,
+    grow: (columns: readonly number[]) => number,
+): ExactOutcome | null {
+    const literals = primes.map((p) => cubeLiteralCount(p, nvars));
+    const out = lexicographicCover(literals, rows, upper, limits, grow);
+    if (out === null) return null;
+    return { cover: out.columns?.map((j) => primes[j]!) ?? null, proven: out.proven };
+}
+
+/**
+ * A cover of `rows` by columns (column j has `literals[j]` literals) with fewer columns than
+ * `upper`, or as many and fewer literals; `columns` null when none was found, `proven` when
+ * nothing cheaper exists. Null when the table outgrows `limits.maxRows`.
+ *
+ * Lexicographic, in two searches: the fewest columns (unit costs, where column dominance and
+ * integer rounding of the bound are strongest), then the fewest literals among covers of that
+ * many columns (a column-count limit). One weighted search (a column outweighing every
+ * literal) would rank the same covers, but its bound says little about literals.
+ * `grow` adds the rows a solution leaves bare and returns how many (0: nothing is bare), for
+ * tables whose rows are generated lazily.
+ */
+export function lexicographicCover(
+    literals: readonly number[], rows: number[][], upper: CoverCost | null, limits: ExactLimits,
+    grow: (columns: readonly number[]) => number = () => 0,
+): { columns: number[] | null; proven: boolean } | null {
+    const unit = literals.map(() => 1);
     // One work budget for every round of both searches.
     let workLeft = limits.maxWork ?? Infinity;
-    /** Solves the table (growing it) until the optimum covers the ON-set; null when out of limits. */
+    /** Solves the table (growing it) until the optimum leaves nothing bare; null when out of limits. */
     const solve = (cost: readonly number[], bound: number, maxColumns?: number): { columns: number[] | null; complete: boolean } | null => {
         for (;;) {
             if (rows.length > limits.maxRows) return null;
-            const sol = solveCover({ rows, columns: primes.length, cost, maxColumns }, bound, limits.deadline, workLeft);
+            const sol = solveCover({ rows, columns: literals.length, cost, maxColumns }, bound, limits.deadline, workLeft);
             workLeft -= sol.work;
             if (sol.columns === null) return { columns: null, complete: sol.complete };
-            if (addMissing(sol.columns) === 0) return { columns: sol.columns, complete: sol.complete };
+            if (grow(sol.columns) === 0) return { columns: sol.columns, complete: sol.complete };
             if (!sol.complete || cpuNow() > limits.deadline) return { columns: null, complete: false };
         }
     };
-    const first = solve(unit, upper.products);
+    const first = solve(unit, upper?.products ?? Infinity);
     if (first === null) return null;
-    // Without a cover of fewer products, the upper bound's product count is the fewest (when
-    // the search completed) and its literal count the one to beat.
-    const products = first.columns?.length ?? upper.products;
-    const literalBound = first.columns ? first.columns.reduce((s, j) => s + literals[j]!, 0) : upper.literals;
-    const second = workLeft > 0 ? solve(literals, literalBound, products) : { columns: null, complete: false };
-    if (second === null) return { cover: first.columns?.map((j) => primes[j]!) ?? null, proven: false };
-    const best = second.columns ?? first.columns;
-    return { cover: best?.map((j) => primes[j]!) ?? null, proven: first.complete && second.complete };
+    if (first.columns === null && upper === null) return { columns: null, proven: false };
+    // Without a cover of fewer columns, the upper bound's column count is the fewest (when the
+    // search completed) and its literal count the one to beat.
+    const count = first.columns?.length ?? upper!.products;
+    const literalBound = first.columns ? first.columns.reduce((s, j) => s + literals[j]!, 0) : upper!.literals;
+    const second = workLeft > 0 ? solve(literals, literalBound, count) : { columns: null, complete: false };
+    if (second === null) return { columns: first.columns, proven: false };
+    return { columns: second.columns ?? first.columns, proven: first.complete && second.complete };
 }
 
 /** True when c lies inside or outside every prime (so "covered" means "inside one prime"). */

@@ -351,6 +351,15 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
                 return;
             }
             view = viewOf(t);
+            if (!Number.isFinite(bestCost)) {
+                // No incumbent yet: a plain greedy cover first, so that the bound has a target.
+                const first = greedyCover(view, new Float64Array(view.colCount));
+                work += first.work;
+                if (chosen.length + first.columns.length <= maxColumns) {
+                    bestCost = acc.cost + first.cost;
+                    best = [...chosen, ...first.columns.map((j) => t!.cols[j]!)];
+                }
+            }
             const u = new Float64Array(view.rowCount);
             for (let i = 0; i < u.length; i++) u[i] = uRow[t.rows[i]!]!;
             const budget = bestCost - acc.cost;

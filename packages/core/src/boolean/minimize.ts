@@ -11,7 +11,8 @@ import { type Cube, isEmpty, wordMask, wordsFor } from './cube.js';
 import { cheaper, coverCost, espressoHeuristic, essentialPrimes } from './espresso/loop.js';
 import { singleCubeContainment } from './espresso/unate.js';
 import { dontCaresOutside } from './dont-care.js';
-import { exactCover } from './exact.js';
+import { type ExactLimits, type ExactOutcome, exactCover, exactOverTable } from './exact.js';
+import { forEachMinterm, primesFromTable, truthTableOf } from './primes-table.js';
 
 export { minimizeMulti, type MultiFunction, type MultiResult } from './multi-output.js';
 
@@ -43,6 +44,35 @@ export interface MinimizeResult {
 
 const DEFAULT_BUDGET_MS = 2000;
 const DEFAULT_EXACT_WORK = 8_000_000;
+/** Functions of at most this many variables take the truth-table path (primes-table.ts). */
+const TABLE_VARS = Number(process.env.TV ?? 10);
+
+function defaultExactWork(nvars: number): number {
+    return Number(process.env.EW ?? DEFAULT_EXACT_WORK);
+}
+
+/** Primes from the truth table, every ON minterm a row, then the exact search; null past the limits. */
+function exactFromTable(on: readonly Cube[], dc: readonly Cube[], nvars: number, limits: ExactLimits): ExactOutcome | null {
+    const onTable = truthTableOf(on, nvars);
+    const careTable = truthTableOf(dc, nvars);
+    for (let m = 0; m < onTable.length; m++) careTable[m]! |= onTable[m]!;
+    const primes = primesFromTable(onTable, careTable, nvars, limits.maxPrimes);
+    if (primes === null) return null;
+    const lists: number[][] = [];
+    const at = new Int32Array(onTable.length).fill(-1);
+    primes.forEach((p, j) => {
+        forEachMinterm(p, nvars, (m) => {
+            if (!onTable[m]) return;
+            if (at[m]! < 0) { at[m] = lists.length; lists.push([]); }
+            lists[at[m]!]!.push(j);
+        });
+    });
+    // Minterms in the same primes make the same row: keep one.
+    const keys = new Set<string>();
+    const rows = lists.filter((r) => { const k = r.join(','); if (keys.has(k)) return false; keys.add(k); return true; });
+    if (rows.length > limits.maxRows) return null;
+    return exactOverTable(primes, rows, nvars, null, limits);
+}
 
 /** Minimizes f with ON-set `on` and don't-care set `dc` (both covers over `nvars` variables). */
 export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number, options: MinimizeOptions = {}): MinimizeResult {
@@ -54,6 +84,19 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
     const onCubes = singleCubeContainment(on.filter((c) => !isEmpty(c, nvars)), words);
     const dcCubes = dontCaresOutside(dc.filter((c) => !isEmpty(c, nvars)), onCubes, nvars);
     if (onCubes.length === 0) return { cover: [], exact: true };
+    const maxPrimes = method === 'exact' ? 1_000_000 : options.maxPrimes ?? 4000;
+    const maxRows = method === 'exact' ? 10_000_000 : options.maxRows ?? 20000;
+    const exactWork = method === 'exact' ? Infinity : options.exactWork ?? defaultExactWork(nvars);
+    // Small functions: primes from the truth table and the exact search first, starting from
+    // its own greedy cover; the heuristic runs only when that search does not finish.
+    let tabled: Cube[] | null = null;
+    if (method !== 'heuristic' && nvars <= TABLE_VARS) {
+        const outcome = exactFromTable(onCubes, dcCubes, nvars, { maxPrimes, maxRows, deadline, maxWork: exactWork });
+        if (outcome !== null) {
+            if (outcome.proven && outcome.cover !== null) return { cover: outcome.cover, exact: true };
+            tabled = outcome.cover;
+        }
+    }
     // The heuristic gets most of the budget only when exact work is not wanted.
     const heuristicDeadline = method === 'heuristic' ? deadline : start + Math.max(1, budget * 0.5);
     const h = espressoHeuristic(onCubes, dcCubes, nvars, { deadline: heuristicDeadline });
@@ -67,16 +110,18 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
     if (h.target.off !== null && h.essentialCount === cover.length
         && essentialPrimes(cover, dcCubes, nvars).length === cover.length
         && allPrime(cover, h.target.off, nvars)) return { cover, exact: true };
+    if (tabled !== null && cheaper(coverCost(tabled, nvars), coverCost(cover, nvars))) cover = tabled;
+    // The table search already ran (and did not finish): the heuristic's cover is all it adds.
+    if (nvars <= TABLE_VARS && method !== 'exact') return { cover, exact: false };
     const hc = coverCost(cover, nvars);
-    const big = method === 'exact';
     const outcome = exactCover(onCubes, h.target.care, nvars, hc, {
-        maxPrimes: big ? 1_000_000 : options.maxPrimes ?? 4000,
-        maxRows: big ? 10_000_000 : options.maxRows ?? 20000,
+        maxPrimes,
+        maxRows,
         // The budget is a safety net; in 'auto' the search is bounded by work (deterministic).
         deadline,
         // When even the OFF-set was too large to compute (one-hot style covers), the covering
         // problem is too: a tenth of the work then.
-        maxWork: big ? Infinity : (options.exactWork ?? DEFAULT_EXACT_WORK) / (h.target.off === null ? 10 : 1),
+        maxWork: exactWork / (h.target.off === null ? 10 : 1),
     });
     if (outcome === null) return { cover, exact: false };
     if (outcome.cover && cheaper(coverCost(outcome.cover, nvars), hc)) cover = outcome.cover;

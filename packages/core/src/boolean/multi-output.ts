@@ -15,9 +15,9 @@ import { dontCaresOutside } from './dont-care.js';
 import { cubeLiteralCount } from './espresso/expand.js';
 import { irredundant } from './espresso/irredundant.js';
 import { coverHasCube, cubeCofactor, singleCubeContainment } from './espresso/unate.js';
-import { firstMinterm, holeIn, productWeight } from './exact.js';
-import { solveCover } from './mincov.js';
+import { firstMinterm, holeIn, lexicographicCover } from './exact.js';
 import { type MinimizeOptions, minimize } from './minimize.js';
+import { primesFromTable, truthTableOf } from './primes-table.js';
 
 export interface MultiFunction {
     readonly on: readonly Cube[];
@@ -63,14 +63,17 @@ export function minimizeMulti(functions: readonly MultiFunction[], nvars: number
         products: alone.reduce((s, r) => s + r.cover.length, 0),
         literals: alone.reduce((s, r) => s + r.cover.reduce((t, c) => t + cubeLiteralCount(c, nvars), 0), 0),
     };
-    // Candidates: baseline products, then intersections across functions.
+    // Candidates: baseline products, then the multi-output primes when the functions are small
+    // enough to tabulate (then the search below is exact), else intersections across functions.
     const cands: Cube[] = [];
     const seen = new Set<string>();
     const add = (c: Cube): void => { const k = key(c); if (!seen.has(k)) { seen.add(k); cands.push(c); } };
     alone.forEach((r) => r.cover.forEach(add));
     const baselineCount = cands.length;
     const maxCandidates = options.maxCandidates ?? 1500;
-    for (let i = 0; i < alone.length && cands.length < maxCandidates; i++) {
+    const tabled = functions.length > 1 ? multiOutputPrimes(functions, nvars, maxCandidates) : null;
+    if (tabled !== null) tabled.forEach(add);
+    for (let i = 0; i < alone.length && cands.length < maxCandidates && tabled === null; i++) {
         for (let j = i + 1; j < alone.length && cands.length < maxCandidates; j++) {
             for (const a of alone[i]!.cover) for (const b of alone[j]!.cover) {
                 if (cands.length >= maxCandidates) break;
@@ -82,10 +85,9 @@ export function minimizeMulti(functions: readonly MultiFunction[], nvars: number
     }
     const valid: number[][] = cands.map((c) => functions.flatMap((_, f) => (coverHasCube(care[f]!, c, nvars) ? [f] : [])));
     // Baseline as a selection of candidates, and its cost.
-    const weight = productWeight(nvars, baselineCount);
-    const cost = cands.map((c) => weight + cubeLiteralCount(c, nvars));
-    let upper = 0;
-    for (let j = 0; j < baselineCount; j++) upper += cost[j]!;
+    const candLiterals = cands.map((c) => cubeLiteralCount(c, nvars));
+    let baselineLiterals = 0;
+    for (let j = 0; j < baselineCount; j++) baselineLiterals += candLiterals[j]!;
     let chosen: number[] = Array.from({ length: baselineCount }, (_, j) => j);
 
     if (functions.length > 1 && cpuNow() < start + budget) {
@@ -104,15 +106,11 @@ export function minimizeMulti(functions: readonly MultiFunction[], nvars: number
             if (cols.length > 0 && !rowKeys.has(k)) { rowKeys.add(k); rows.push(cols); }
         };
         functions.forEach((fn, f) => fn.on.forEach((c) => { if (!isEmpty(c, nvars)) addRow(f, firstMinterm(c, nvars)); }));
-        // Bounded by counted work (deterministic, like minimize's exact step); the budget is a safety net.
-        let workLeft = options.exactWork ?? 16_000_000;
-        for (let round = 0; round < 50 && cpuNow() < start + budget && workLeft > 0; round++) {
-            const sol = solveCover({ rows, columns: cands.length, cost }, upper, start + budget, workLeft);
-            workLeft -= sol.work;
-            if (sol.columns === null) break;
+        /** Rows for the ON minterms of every function that the columns leave bare; how many. */
+        const grow = (columns: readonly number[]): number => {
             let missing = 0;
             functions.forEach((fn, f) => {
-                const mine = sol.columns!.filter((j) => valid[j]!.includes(f)).map((j) => cands[j]!);
+                const mine = columns.filter((j) => valid[j]!.includes(f)).map((j) => cands[j]!);
                 for (const c of fn.on) {
                     if (isEmpty(c, nvars)) continue;
                     const hole = holeIn(cubeCofactor(mine, c, nvars), nvars);
@@ -123,8 +121,13 @@ export function minimizeMulti(functions: readonly MultiFunction[], nvars: number
                     missing++;
                 }
             });
-            if (missing === 0) { chosen = sol.columns; upper = sol.cost; break; }
-        }
+            return missing;
+        };
+        // Bounded by counted work (deterministic, like minimize's exact step); the budget is a safety net.
+        const sol = lexicographicCover(candLiterals, rows, { products: baselineCount, literals: baselineLiterals }, {
+            maxPrimes: Infinity, maxRows: 1_000_000, deadline: start + budget, maxWork: options.exactWork ?? 16_000_000,
+        }, grow);
+        if (sol?.columns) chosen = sol.columns;
     }
     // Per-function covers from the chosen products, made irredundant for that function.
     const covers = functions.map((fn, f) => {
@@ -141,4 +144,44 @@ export function minimizeMulti(functions: readonly MultiFunction[], nvars: number
     const products = [...used.values()].map((u) => u.cube);
     const shared: SharingCost = { products: products.length, literals: products.reduce((s, c) => s + cubeLiteralCount(c, nvars), 0) };
     return { covers, products, users: [...used.values()].map((u) => u.users), apart, shared, exactApart: alone.every((r) => r.exact) };
+}
+
+/** Largest function count whose output subsets are enumerated for multi-output primes. */
+const MAX_TABLED_FUNCTIONS = 6;
+
+/**
+ * The multi-output primes: for every non-empty set S of the functions, the primes of the
+ * product of their ON ∪ DC that meet some ON-set in S. Every cover with shared products can be
+ * made of these without more products (grow each product, used by S, to a prime of S's product),
+ * so a covering search over them is exact. Null beyond the table size or `limit` primes.
+ */
+function multiOutputPrimes(functions: readonly MultiFunction[], nvars: number, limit: number): Cube[] | null {
+    if (nvars > 10 || functions.length > MAX_TABLED_FUNCTIONS) return null;
+    const size = 1 << nvars;
+    const onTables = functions.map((f) => truthTableOf(f.on, nvars));
+    const careTables = functions.map((f, i) => {
+        const t = truthTableOf(f.dc, nvars);
+        for (let m = 0; m < size; m++) t[m]! |= onTables[i]![m]!;
+        return t;
+    });
+    const out: Cube[] = [];
+    const seen = new Set<number>();
+    const care = new Uint8Array(size);
+    const on = new Uint8Array(size);
+    for (let set = 1; set < 1 << functions.length; set++) {
+        care.fill(1);
+        on.fill(0);
+        functions.forEach((_, i) => {
+            if (!((set >> i) & 1)) return;
+            const c = careTables[i]!;
+            const o = onTables[i]!;
+            for (let m = 0; m < size; m++) { care[m]! &= c[m]!; on[m]! |= o[m]!; }
+        });
+        for (let m = 0; m < size; m++) on[m]! &= care[m]!;
+        const primes = primesFromTable(on, care, nvars, limit);
+        if (primes === null) return null;
+        for (const p of primes) if (!seen.has(p[0]!)) { seen.add(p[0]!); out.push(p); }
+        if (out.length > limit) return null;
+    }
+    return out;
 }

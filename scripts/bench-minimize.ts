@@ -4,13 +4,15 @@
  * the minimizer tests: 320 incompletely specified functions of 4–16 variables.
  *
  * Prints, measured in one run with the two interleaved function by function, in CPU time of
- * the process (process.cpuUsage: both sides run in-process, and a busy machine does not skew it): our time and
+ * the process (process.cpuUsage: both sides run in-process), each side's time per function the
+ * least of `--repeat` runs (default 5: a shared machine's pauses and collector runs inflate
+ * single runs of a few milliseconds at random): our time and
  * literal totals vs the reference's (time ratio = ours / reference, the reference timed
  * including its JS overhead: PLA text in, result lines out; literal ratio = ours / reference),
  * per-size-bucket figures, and our times on wide one-hot functions (100 variables).
  * Targets: literal ratio ≤ 1.0, time ratio ≤ 2.
  *
- * Run: node scripts/run-ts.mjs scripts/bench-minimize.ts [--count N] [--json]
+ * Run: node scripts/run-ts.mjs scripts/bench-minimize.ts [--count N] [--repeat R] [--json]
  */
 import { createRequire } from 'node:module';
 import { cubeFromString, cubeToString } from '../packages/core/src/boolean/cube.js';
@@ -23,6 +25,7 @@ const espresso = require('espresso-logic-minimizer') as { minimize(lines: string
 const args = process.argv.slice(2);
 const count = Number(args[args.indexOf('--count') + 1] ?? 320) || 320;
 const json = args.includes('--json');
+const repeat = Math.max(1, Number(args[args.indexOf('--repeat') + 1] ?? 5) || 5);
 const suite = buildSuite(count, 20261202);
 
 interface Bucket { label: string; lo: number; hi: number; n: number; oursLits: number; refLits: number; oursMs: number; refMs: number; exact: number; notWorse: number }
@@ -49,15 +52,25 @@ const cpu = (): number => { const u = process.cpuUsage(); return (u.user + u.sys
 let faults = 0;
 for (const f of suite) {
     const pla = plaLines(f);
-    let t = cpu();
-    const on = f.on.map(cubeFromString);
-    const dc = f.dc.map(cubeFromString);
-    const r = minimize(on, dc, f.nvars);
-    const mine = r.cover.map((c) => cubeToString(c, f.nvars));
-    const oursMs = cpu() - t;
-    t = cpu();
-    const theirs = ref(pla);
-    const refMs = cpu() - t;
+    let oursMs = Infinity;
+    let refMs = Infinity;
+    let r: ReturnType<typeof minimize> | null = null;
+    let mine: string[] = [];
+    let theirs: string[] = [];
+    for (let k = 0; k < repeat; k++) {
+        let t = cpu();
+        const on = f.on.map(cubeFromString);
+        const dc = f.dc.map(cubeFromString);
+        r = minimize(on, dc, f.nvars);
+        mine = r.cover.map((c) => cubeToString(c, f.nvars));
+        oursMs = Math.min(oursMs, cpu() - t);
+        t = cpu();
+        const out = ref(pla);
+        refMs = Math.min(refMs, cpu() - t);
+        // The literal figures come from the first answer (repeated calls of the binding have
+        // been seen to differ slightly).
+        if (k === 0) theirs = out;
+    }
     const table = truthTable(f);
     if (checkCover(f, table, mine) || checkCover(f, table, theirs)) faults++;
     const b = buckets.find((x) => f.nvars >= x.lo && f.nvars <= x.hi)!;
@@ -66,7 +79,7 @@ for (const f of suite) {
     b.refLits += literalsOf(theirs);
     b.oursMs += oursMs;
     b.refMs += refMs;
-    if (r.exact) b.exact++;
+    if (r!.exact) b.exact++;
     if (literalsOf(mine) <= literalsOf(theirs)) b.notWorse++;
 }
 

@@ -473,31 +473,33 @@ describe('editing features', () => {
 });
 
 describe('as-built diagnostics (idle-time phase)', () => {
-    // Gray codes for 3 states use 00 01 11; code 10 is unused and, as built with D flip-flops and
-    // unused codes as don't-cares, may map to itself — a lock-up the CLI check reports too.
-    const HOIST = `machine Hoist {
-    encoding gray;
-    reset rst -> Down;
-    input up_cmd, down_cmd;
-    output motor;
-    state Down { when up_cmd -> Rising; otherwise stay; }
-    state Rising { emit motor; when !up_cmd -> Up; otherwise stay; }
-    state Up { when down_cmd -> Down; otherwise stay; }
+    // Binary codes Hold 00, Dose 01, Flush 10 leave 11 unused (a don't-care). Worked by hand:
+    // d1's ON-set is {01}, OFF {00, 10}, so its one minimal cover is q0; d0's ON-set is Hold·go
+    // and Flush·!stop, and its minimal cover must use q1·!stop (two literals, through 11). So
+    // in every minimal solution 11 goes to 11 while stop = 0: the lock-up does not depend on
+    // which of several equal covers the minimizer picks.
+    const DOSING = `machine Dosing {
+    reset rst -> Hold;
+    input go, stop;
+    output pump, drain_valve;
+    state Hold  { when go -> Dose; otherwise stay; }
+    state Dose  { emit pump; otherwise -> Flush; }
+    state Flush { emit drain_valve; when stop -> Hold; otherwise -> Dose; }
 }
 `;
     it('publishes lockup after the fast diagnostics and the recover fix removes it', async () => {
-        const uri = freshUri('hoist');
-        const fast = await session.open(uri, HOIST);
+        const uri = freshUri('dosing');
+        const fast = await session.open(uri, DOSING);
         expect(codes(fast)).not.toContain('lockup');
         const later = await session.waitFor(uri, (ds) => ds.some((d) => d.code === 'lockup'));
         const lockup = later.find((d) => d.code === 'lockup')!;
         expect(lockup.range.start.line).toBeGreaterThanOrEqual(0);
-        expect(lockup.range.end.line).toBeLessThanOrEqual(positionOf(HOIST, '}\n', 3).line);
+        expect(lockup.range.end.line).toBeLessThanOrEqual(positionOf(DOSING, '}\n', 3).line);
         const actions = await session.request<CodeAction[]>('textDocument/codeAction', { textDocument: { uri }, range: lockup.range, context: { diagnostics: [lockup] } });
-        const recover = actions.find((a) => /recover -> Down;/.test(a.title));
+        const recover = actions.find((a) => /recover -> Hold;/.test(a.title));
         expect(recover, actions.map((a) => a.title).join(' | ')).toBeDefined();
-        const fixed = applyWorkspaceEdit(HOIST, uri, recover!.edit);
-        expect(fixed).toContain('    recover -> Down;\n    state Down');
+        const fixed = applyWorkspaceEdit(DOSING, uri, recover!.edit);
+        expect(fixed).toContain('    recover -> Hold;\n    state Hold');
         await session.change(uri, fixed);
         // give the idle phase time to run, then check the lock-up is gone and no error appeared
         await new Promise((r) => setTimeout(r, 1500));

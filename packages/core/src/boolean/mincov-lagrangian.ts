@@ -37,8 +37,9 @@ export interface LagrangianOutcome {
  */
 export function lagrangianBound(
     v: CoverView, u: Float64Array, iterations: number, target: number, enough: number, slots = Infinity, mu: { value: number } = { value: 0 },
+    startStep = 2,
 ): LagrangianOutcome {
-    const { rowCount: nr, colCount: nc, colStart, colRow, rowStart, rowCol, cost } = v;
+    const { rowCount: nr, colCount: nc, colStart, colRow, cost } = v;
     // With at most `slots` more columns allowed, that constraint is relaxed too, with multiplier
     // mu ≥ 0: every column costs mu more and the bound gives back mu·slots.
     const limited = Number.isFinite(slots);
@@ -49,7 +50,7 @@ export function lagrangianBound(
     const bestU = new Float64Array(nr);
     const g = new Float64Array(nr);
     let best = -Infinity;
-    let lambda = 2;
+    let lambda = startStep;
     let stall = 0;
     let work = 0;
     let optimal: number[] | null = null;
@@ -78,15 +79,18 @@ export function lagrangianBound(
         if (best >= enough || lambda < 1e-4) break;
         // Subgradient: 1 − (columns with negative reduced cost covering the row), projected so
         // that multipliers at zero are not pushed below it.
+        g.fill(1);
+        for (let j = 0; j < nc; j++) {
+            if (s[j]! >= 0) continue;
+            for (let k = colStart[j]!; k < colStart[j + 1]!; k++) g[colRow[k]!]!--;
+        }
         let norm = 0;
         let feasible = true;
         for (let i = 0; i < nr; i++) {
-            let k = 1;
-            for (let q = rowStart[i]!; q < rowStart[i + 1]!; q++) if (s[rowCol[q]!]! < 0) k--;
+            const k = g[i]!;
             if (k > 0) feasible = false;
-            const gi = k < 0 && u[i]! <= 0 ? 0 : k;
-            g[i] = gi;
-            norm += gi * gi;
+            else if (k < 0 && u[i]! <= 0) g[i] = 0;
+            norm += g[i]! * g[i]!;
         }
         let gMu = limited ? negatives - slots : 0;
         if (gMu < 0 && m <= 0) gMu = 0;

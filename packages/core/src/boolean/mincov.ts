@@ -34,6 +34,8 @@ export interface CoverSolution {
 class OutOfTime extends Error {}
 
 const EPS = 1e-9;
+/** Nodes at most this deep try a Lagrangian greedy cover. */
+const GREEDY_DEPTH = 3;
 
 /** A node's table: rows and columns renumbered densely, both directions as bitsets. */
 interface Table {
@@ -165,7 +167,13 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
             const rw = (nr + 31) >>> 5;
             // Per pass: building the table, both dominance checks, and a fixed cost per node
             // (allocation, sorting, the bound) that small tables are dominated by.
-            work += 2000 + 16 * (nr + nc) + nr * cw + nc * rw + Math.min(effort, nr * nr * cw) + Math.min(effort, nc * nc * rw);
+            // A dominance check ANDs, for every row (column), the bitsets of its columns (rows):
+            // one word operation per entry per word of the other side.
+            let nnz = 0;
+            for (let i = 0; i < nr; i++) nnz += t.rowCount[i]!;
+            const rowDominanceWork = (nnz + nr) * rw;
+            const colDominanceWork = (nnz + nc) * cw;
+            work += 2000 + 16 * (nr + nc) + nr * cw + nc * rw + Math.min(effort, rowDominanceWork) + Math.min(effort, colDominanceWork);
             if (work > maxWork) throw new OutOfTime();
             if (nr === 0) return t;
             // Essential columns.
@@ -200,7 +208,7 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
             // Row dominance: a row containing another row's columns is implied by it.
             const order = rowsByCount(t, scratchOrder);
             const dropRow = scratchRow; dropRow.fill(0, 0, nr);
-            if (nr * nr * cw <= effort) {
+            if (rowDominanceWork <= effort) {
                 // The rows holding every column of a are the AND of a's columns' row sets — a few
                 // word operations per column of a, instead of a subset test against every row.
                 // Same outcome as testing the pairs in `order`: a later row containing an
@@ -236,7 +244,7 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
             }
             // Column dominance: a column whose rows lie within a no-dearer column's is not needed.
             const dropCol = scratchCol2; dropCol.fill(0, 0, nc);
-            if (nc * nc * rw <= effort) {
+            if (colDominanceWork <= effort) {
                 // Local copies: the pair loop below is the hottest of the search.
                 const cc = t.colCount;
                 const colCost = scratchCost;
@@ -366,9 +374,12 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
             // The bound that prunes this node: a cover must cost at least `enough` more to lose.
             let enough = budget;
             if (integral && Number.isFinite(budget)) enough = budget - 1 + 1e-6;
-            const iterations = depth === 0 && pass === 0 ? 400 : 40;
+            // The root starts from scratch; a child starts from its parent's multipliers, near
+            // their optimum already, with smaller steps.
+            const root = depth === 0 && pass === 0;
+            const iterations = root ? 400 : 40;
             const lag = lagrangianBound(view, u, iterations, Number.isFinite(budget) ? budget : view.cmax * view.rowCount, enough,
-                maxColumns - chosen.length, mu);
+                maxColumns - chosen.length, mu, root ? 2 : 0.5);
             work += lag.work;
             for (let i = 0; i < u.length; i++) uRow[t.rows[i]!] = u[i]!;
             if (lag.optimal !== null) {
@@ -377,7 +388,9 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
                 if (c < bestCost - EPS) { bestCost = c; best = [...chosen, ...lag.optimal.map((j) => t!.cols[j]!)]; }
                 return;
             }
-            const greedy = greedyCover(view, lag.reduced);
+            // A cover built from the reduced costs: deep in the tree the incumbent is rarely
+            // improved this way, so only near the root.
+            const greedy = depth <= GREEDY_DEPTH ? greedyCover(view, lag.reduced) : { columns: [], cost: Infinity, work: 0 };
             work += greedy.work;
             if (acc.cost + greedy.cost < bestCost - EPS && chosen.length + greedy.columns.length <= maxColumns) {
                 bestCost = acc.cost + greedy.cost;
@@ -445,6 +458,27 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
         }
     };
 
+    // Without an upper bound, a greedy cover of the whole table first: whatever the work limit,
+    // the search then returns a cover.
+    if (!Number.isFinite(bestCost) && maxColumns === Infinity) {
+        const hits = new Int32Array(p.rows.length);
+        const taken: number[] = [];
+        let c = 0;
+        p.rows.forEach((row, r) => {
+            if (hits[r]! > 0 || row.length === 0) return;
+            let pick = row[0]!;
+            let score = Infinity;
+            for (const j of row) {
+                let fresh = 0;
+                for (const q of colRows[j]!) if (hits[q] === 0) fresh++;
+                if (p.cost[j]! / fresh < score) { score = p.cost[j]! / fresh; pick = j; }
+            }
+            taken.push(pick);
+            c += p.cost[pick]!;
+            for (const q of colRows[pick]!) hits[q]!++;
+        });
+        if (p.rows.every((row) => row.length > 0)) { best = taken; bestCost = c; }
+    }
     const chosenRoot: number[] = [];
     try {
         search(p.rows.map((_, i) => i), Array.from({ length: nCols }, (_, j) => j), chosenRoot, 0, 0, null);

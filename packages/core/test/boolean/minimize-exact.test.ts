@@ -1,75 +1,9 @@
-// Oracle: an exhaustive search written here, independent of exact.ts / mincov.ts. It lists
-// every implicant of ON ∪ DC from the truth table (all 3^n cube strings), keeps the primes
-// (a minimum cover — fewest products, then fewest literals — can always be made of primes:
-// growing a cube to a prime keeps the product count and never adds literals), and searches all
-// covers by branch and bound: branch on the uncovered ON minterm with the fewest primes, prune
-// with a lower bound from minterms no prime covers two of (each needs its own product).
+// Oracle: bruteForceOptimum (minimize-suite.ts), an exhaustive search independent of
+// exact.ts / mincov.ts / primes-table.ts.
 import { describe, expect, it } from 'vitest';
 import { cubeFromString, cubeToString } from '../../src/boolean/cube.js';
 import { minimize } from '../../src/boolean/minimize.js';
-import { type SuiteFunction, checkCover, markCube, rng, truthTable } from './minimize-suite.js';
-
-interface Optimum { readonly products: number; readonly literals: number }
-
-function allCubeStrings(n: number): string[] {
-    let out = [''];
-    for (let v = 0; v < n; v++) out = out.flatMap((s) => [s + '0', s + '1', s + '-']);
-    return out;
-}
-
-function bruteForceOptimum(f: SuiteFunction): Optimum {
-    const n = f.nvars;
-    const table = truthTable(f);
-    const onList: number[] = [];
-    table.forEach((x, m) => { if (x === 1) onList.push(m); });
-    if (onList.length === 0) return { products: 0, literals: 0 };
-    const isImplicant = (s: string): boolean => {
-        const hit = new Uint8Array(1 << n);
-        markCube(hit, s, 1);
-        for (let m = 0; m < hit.length; m++) if (hit[m] && table[m] === 0) return false;
-        return true;
-    };
-    const implicants = new Set(allCubeStrings(n).filter(isImplicant));
-    const primes = [...implicants].filter((s) => {
-        for (let v = 0; v < n; v++) if (s[v] !== '-' && implicants.has(s.slice(0, v) + '-' + s.slice(v + 1))) return false;
-        return true;
-    });
-    const onIndex = new Map(onList.map((m, i) => [m, i]));
-    const primeRows: bigint[] = [];
-    const primeLits: number[] = [];
-    for (const s of primes) {
-        const hit = new Uint8Array(1 << n);
-        markCube(hit, s, 1);
-        let mask = 0n;
-        hit.forEach((x, m) => { if (x && onIndex.has(m)) mask |= 1n << BigInt(onIndex.get(m)!); });
-        if (mask !== 0n) { primeRows.push(mask); primeLits.push([...s].filter((c) => c !== '-').length); }
-    }
-    const full = (1n << BigInt(onList.length)) - 1n;
-    const coveredBy: number[][] = onList.map((_, i) => primeRows.flatMap((r, j) => ((r >> BigInt(i)) & 1n ? [j] : [])));
-    const W = 1000; // one product outweighs any literal count here (n ≤ 8, < 125 products)
-    let best = Infinity;
-    const search = (covered: bigint, cost: number): void => {
-        if (covered === full) { if (cost < best) best = cost; return; }
-        // Lower bound: greedy set of uncovered minterms with pairwise disjoint prime sets.
-        const uncovered: number[] = [];
-        for (let i = 0; i < onList.length; i++) if (!((covered >> BigInt(i)) & 1n)) uncovered.push(i);
-        uncovered.sort((a, b) => coveredBy[a]!.length - coveredBy[b]!.length);
-        const used = new Set<number>();
-        let bound = 0;
-        for (const i of uncovered) {
-            if (coveredBy[i]!.some((j) => used.has(j))) continue;
-            let m = Infinity;
-            for (const j of coveredBy[i]!) { used.add(j); m = Math.min(m, W + primeLits[j]!); }
-            bound += m;
-        }
-        if (cost + bound >= best) return;
-        const pick = uncovered[0]!;
-        const options = [...coveredBy[pick]!].sort((a, b) => primeLits[a]! - primeLits[b]!);
-        for (const j of options) search(covered | primeRows[j]!, cost + W + primeLits[j]!);
-    };
-    search(0n, 0);
-    return { products: Math.floor(best / W), literals: best % W };
-}
+import { type SuiteFunction, bruteForceOptimum, checkCover, rng, truthTable } from './minimize-suite.js';
 
 /** 120 seeded functions of 4–8 variables, mostly 5–7, minterm- and cube-given. */
 function exactSuite(): SuiteFunction[] {

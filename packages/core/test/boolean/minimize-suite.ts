@@ -149,3 +149,132 @@ export function oneHotFunction(seed: number, states: number, inputs: number, pro
     return { n, on, dc, states };
 }
 
+
+function allCubeStrings(n: number): string[] {
+    let out = [''];
+    for (let v = 0; v < n; v++) out = out.flatMap((s) => [s + '0', s + '1', s + '-']);
+    return out;
+}
+
+/**
+ * The minimum cover cost (fewest products, then fewest literals) by exhaustive search, written
+ * independently of the minimizer: every implicant of ON ∪ DC from the truth table (all 3^n cube
+ * strings), keep the primes (a minimum cover can always be made of primes: growing a cube to a
+ * prime keeps the product count and never adds literals), then search all covers by branch and
+ * bound — branch on the uncovered ON minterm with the fewest primes, prune with a lower bound
+ * from minterms no prime covers two of (each needs its own product).
+ */
+export interface Optimum { readonly products: number; readonly literals: number }
+
+
+export function bruteForceOptimum(f: SuiteFunction): Optimum {
+    const n = f.nvars;
+    const table = truthTable(f);
+    const onList: number[] = [];
+    table.forEach((x, m) => { if (x === 1) onList.push(m); });
+    if (onList.length === 0) return { products: 0, literals: 0 };
+    const isImplicant = (s: string): boolean => {
+        const hit = new Uint8Array(1 << n);
+        markCube(hit, s, 1);
+        for (let m = 0; m < hit.length; m++) if (hit[m] && table[m] === 0) return false;
+        return true;
+    };
+    const implicants = new Set(allCubeStrings(n).filter(isImplicant));
+    const primes = [...implicants].filter((s) => {
+        for (let v = 0; v < n; v++) if (s[v] !== '-' && implicants.has(s.slice(0, v) + '-' + s.slice(v + 1))) return false;
+        return true;
+    });
+    const onIndex = new Map(onList.map((m, i) => [m, i]));
+    const primeRows: bigint[] = [];
+    const primeLits: number[] = [];
+    for (const s of primes) {
+        const hit = new Uint8Array(1 << n);
+        markCube(hit, s, 1);
+        let mask = 0n;
+        hit.forEach((x, m) => { if (x && onIndex.has(m)) mask |= 1n << BigInt(onIndex.get(m)!); });
+        if (mask !== 0n) { primeRows.push(mask); primeLits.push([...s].filter((c) => c !== '-').length); }
+    }
+    const full = (1n << BigInt(onList.length)) - 1n;
+    const coveredBy: number[][] = onList.map((_, i) => primeRows.flatMap((r, j) => ((r >> BigInt(i)) & 1n ? [j] : [])));
+    const W = 1000; // one product outweighs any literal count here (n ≤ 8, < 125 products)
+    let best = Infinity;
+    const search = (covered: bigint, cost: number): void => {
+        if (covered === full) { if (cost < best) best = cost; return; }
+        // Lower bound: greedy set of uncovered minterms with pairwise disjoint prime sets.
+        const uncovered: number[] = [];
+        for (let i = 0; i < onList.length; i++) if (!((covered >> BigInt(i)) & 1n)) uncovered.push(i);
+        uncovered.sort((a, b) => coveredBy[a]!.length - coveredBy[b]!.length);
+        const used = new Set<number>();
+        let bound = 0;
+        for (const i of uncovered) {
+            if (coveredBy[i]!.some((j) => used.has(j))) continue;
+            let m = Infinity;
+            for (const j of coveredBy[i]!) { used.add(j); m = Math.min(m, W + primeLits[j]!); }
+            bound += m;
+        }
+        if (cost + bound >= best) return;
+        const pick = uncovered[0]!;
+        const options = [...coveredBy[pick]!].sort((a, b) => primeLits[a]! - primeLits[b]!);
+        for (const j of options) search(covered | primeRows[j]!, cost + W + primeLits[j]!);
+    };
+    search(0n, 0);
+    return { products: Math.floor(best / W), literals: best % W };
+}
+
+
+/** The primes of ON ∪ DC that meet the ON-set, as cube strings, from the truth table (all 3^n cube strings). */
+export function primeStrings(f: SuiteFunction): string[] {
+    const n = f.nvars;
+    const table = truthTable(f);
+    const isImplicant = (s: string): boolean => {
+        const hit = new Uint8Array(1 << n);
+        markCube(hit, s, 1);
+        for (let m = 0; m < hit.length; m++) if (hit[m] && table[m] === 0) return false;
+        return true;
+    };
+    const implicants = new Set(allCubeStrings(n).filter(isImplicant));
+    return [...implicants].filter((s) => {
+        for (let v = 0; v < n; v++) if (s[v] !== '-' && implicants.has(s.slice(0, v) + '-' + s.slice(v + 1))) return false;
+        const hit = new Uint8Array(1 << n);
+        markCube(hit, s, 1);
+        return hit.some((x, m) => x === 1 && table[m] === 1);
+    });
+}
+
+export interface MipSolver {
+    solve(lp: string, options: Record<string, unknown>): { Status: string; ObjectiveValue: number };
+}
+
+/**
+ * The minimum cover cost by an outside solver: HiGHS (npm `highs`, the HiGHS mixed-integer
+ * solver compiled to WebAssembly) on the covering problem over the primes above — first the
+ * fewest products, then the fewest literals with at most that many products — with the gap
+ * tolerances at zero, so that "Optimal" means proven optimal.
+ */
+export function mipOptimum(f: SuiteFunction, highs: MipSolver): Optimum {
+    const primes = primeStrings(f);
+    const table = truthTable(f);
+    const rows: string[] = [];
+    for (let m = 0; m < table.length; m++) {
+        if (table[m] !== 1) continue;
+        const terms: string[] = [];
+        primes.forEach((p, j) => {
+            const hit = new Uint8Array(table.length);
+            markCube(hit, p, 1);
+            if (hit[m]) terms.push(`x${j}`);
+        });
+        rows.push(` r${m}: ${terms.join(' + ')} >= 1`);
+    }
+    if (rows.length === 0) return { products: 0, literals: 0 };
+    const lits = primes.map((p) => [...p].filter((c) => c !== '-').length);
+    const vars = primes.map((_, j) => `x${j}`);
+    const model = (objective: string, extra: string[]): string =>
+        ['Minimize', ` obj: ${objective}`, 'Subject To', ...rows, ...extra, 'Binaries', ` ${vars.join(' ')}`, 'End'].join('\n');
+    const options = { output_flag: false, mip_rel_gap: 0, mip_abs_gap: 0 };
+    const first = highs.solve(model(vars.join(' + '), []), options);
+    if (first.Status !== 'Optimal') throw new Error(`HiGHS: ${first.Status} on ${f.name}`);
+    const products = Math.round(first.ObjectiveValue);
+    const second = highs.solve(model(vars.map((v, j) => `${lits[j]} ${v}`).join(' + '), [` count: ${vars.join(' + ')} <= ${products}`]), options);
+    if (second.Status !== 'Optimal') throw new Error(`HiGHS: ${second.Status} on ${f.name}`);
+    return { products, literals: Math.round(second.ObjectiveValue) };
+}

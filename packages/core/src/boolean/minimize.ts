@@ -1,10 +1,12 @@
 /**
  * Two-level minimization entry point (issue 3).
  *
- * `minimize` runs the Espresso-style heuristic (espresso/loop.ts) first, then — when the
- * prime count, covering table and search work stay within limits — the exact method
- * (exact.ts) seeded with the heuristic cover as upper bound; when that search completes, the
- * cover is proven minimal: fewest products, then fewest literals.
+ * Functions of up to TABLE_VARS variables: every prime from the truth table (primes-table.ts),
+ * every ON minterm a row, and the exact covering search (exact.ts, mincov.ts) from its own
+ * greedy cover; when it completes, the cover is proven minimal — fewest products, then fewest
+ * literals. Wider functions: the Espresso-style heuristic (espresso/loop.ts) first, then — when
+ * the prime count, covering table and search work stay within limits — the exact search seeded
+ * with the heuristic cover as upper bound.
  */
 import { cpuNow } from './clock.js';
 import { type Cube, isEmpty, wordMask, wordsFor } from './cube.js';
@@ -99,13 +101,19 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
     const exactWork = method === 'exact' ? Infinity : options.exactWork ?? defaultExactWork(nvars);
     // Small functions: primes from the truth table and the exact search first, starting from
     // its own greedy cover; the heuristic runs only when that search does not finish.
+    let fromTable: Cube[] | null = null;
     if (method !== 'heuristic' && nvars <= TABLE_VARS) {
-        const outcome = exactFromTable(onCubes, dcCubes, nvars, { maxPrimes, maxRows, deadline, maxWork: exactWork });
+        // Half the budget, so that a search cut short by time (small keystroke budgets) leaves
+        // the heuristic time to run.
+        const tableDeadline = method === 'exact' ? deadline : start + Math.max(1, budget * 0.5);
+        const outcome = exactFromTable(onCubes, dcCubes, nvars, { maxPrimes, maxRows, deadline: tableDeadline, maxWork: exactWork });
         if (outcome !== null) {
             if (outcome.proven && outcome.cover !== null) return { cover: outcome.cover, exact: true };
-            // Its best cover, even unproven, has beaten the heuristic's on every suite function
-            // measured (scripts/bench-minimize.ts), so the heuristic would only add time.
-            if (outcome.cover !== null) return { cover: outcome.cover, exact: false };
+            // Stopped by its work bound, its best cover has beaten the heuristic's on every
+            // suite function measured (scripts/bench-minimize.ts): the heuristic would only add
+            // time. Stopped by the clock, it may be a rough greedy cover: the heuristic runs too.
+            if (outcome.cover !== null && cpuNow() < tableDeadline) return { cover: outcome.cover, exact: false };
+            fromTable = outcome.cover;
         }
     }
     // The heuristic gets most of the budget only when exact work is not wanted.
@@ -121,7 +129,8 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
     if (h.target.off !== null && h.essentialCount === cover.length
         && essentialPrimes(cover, dcCubes, nvars).length === cover.length
         && allPrime(cover, h.target.off, nvars)) return { cover, exact: true };
-    // The table search ran and gave up on the primes (too many): so would the cube path.
+    if (fromTable !== null && cheaper(coverCost(fromTable, nvars), coverCost(cover, nvars))) cover = fromTable;
+    // The table search ran (out of time, or past the prime limit): the cube path would not do better.
     if (nvars <= TABLE_VARS && method !== 'exact') return { cover, exact: false };
     const hc = coverCost(cover, nvars);
     const outcome = exactCover(onCubes, h.target.care, nvars, hc, {

@@ -149,12 +149,13 @@ export function oneHotFunction(seed: number, states: number, inputs: number, pro
     return { n, on, dc, states };
 }
 
-
 function allCubeStrings(n: number): string[] {
     let out = [''];
     for (let v = 0; v < n; v++) out = out.flatMap((s) => [s + '0', s + '1', s + '-']);
     return out;
 }
+
+export interface Optimum { readonly products: number; readonly literals: number }
 
 /**
  * The minimum cover cost (fewest products, then fewest literals) by exhaustive search, written
@@ -164,26 +165,13 @@ function allCubeStrings(n: number): string[] {
  * bound — branch on the uncovered ON minterm with the fewest primes, prune with a lower bound
  * from minterms no prime covers two of (each needs its own product).
  */
-export interface Optimum { readonly products: number; readonly literals: number }
-
-
 export function bruteForceOptimum(f: SuiteFunction): Optimum {
     const n = f.nvars;
     const table = truthTable(f);
     const onList: number[] = [];
     table.forEach((x, m) => { if (x === 1) onList.push(m); });
     if (onList.length === 0) return { products: 0, literals: 0 };
-    const isImplicant = (s: string): boolean => {
-        const hit = new Uint8Array(1 << n);
-        markCube(hit, s, 1);
-        for (let m = 0; m < hit.length; m++) if (hit[m] && table[m] === 0) return false;
-        return true;
-    };
-    const implicants = new Set(allCubeStrings(n).filter(isImplicant));
-    const primes = [...implicants].filter((s) => {
-        for (let v = 0; v < n; v++) if (s[v] !== '-' && implicants.has(s.slice(0, v) + '-' + s.slice(v + 1))) return false;
-        return true;
-    });
+    const primes = primeStrings(f);
     const onIndex = new Map(onList.map((m, i) => [m, i]));
     const primeRows: bigint[] = [];
     const primeLits: number[] = [];
@@ -220,7 +208,6 @@ export function bruteForceOptimum(f: SuiteFunction): Optimum {
     search(0n, 0);
     return { products: Math.floor(best / W), literals: best % W };
 }
-
 
 /** The primes of ON ∪ DC that meet the ON-set, as cube strings, from the truth table (all 3^n cube strings). */
 export function primeStrings(f: SuiteFunction): string[] {

@@ -56,6 +56,15 @@ const DEFAULT_EXACT_WORK = 2_000_000;
 const SMALL_EXACT_WORK = 64_000_000;
 /** Functions of at most this many variables take the truth-table path (primes-table.ts). */
 const TABLE_VARS = 10;
+/**
+ * Table-search work allowed per millisecond of budget. The slowest search measured here does
+ * about 100,000 work units per millisecond warm, 10–20 times less on its first (cold) calls.
+ * The default budget (2000 ms) gives 64 million: no cut.
+ */
+const WORK_PER_BUDGET_MS = 32_000;
+/** The least work and time a table search gets, however small the budget (see minimize). */
+const TABLE_MIN_WORK = 2_000_000;
+const TABLE_MIN_MS = 200;
 /** Functions of at most this many variables get SMALL_EXACT_WORK. */
 const SMALL_VARS = 8;
 
@@ -98,26 +107,36 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
     if (onCubes.length === 0) return { cover: [], exact: true };
     const maxPrimes = method === 'exact' ? 1_000_000 : options.maxPrimes ?? 4000;
     const maxRows = method === 'exact' ? 10_000_000 : options.maxRows ?? 20000;
-    const exactWork = method === 'exact' ? Infinity : options.exactWork ?? defaultExactWork(nvars);
+    const fullWork = defaultExactWork(nvars);
+    const exactWork = method === 'exact' ? Infinity : options.exactWork ?? fullWork;
     // Small functions: primes from the truth table and the exact search first, starting from
-    // its own greedy cover; the heuristic runs only when that search does not finish.
+    // its own greedy cover. A small budget (the keystroke analyses give 10 ms) scales its work
+    // bound down, to no less than TABLE_MIN_WORK, and its clock is at least TABLE_MIN_MS: the
+    // work bound, not the clock, must end the search, so that the same function gets the same
+    // cover on a fast or a loaded machine, cold or warm — and the same as with the full budget
+    // whenever the search finishes (the search path does not depend on where it is stopped).
     let fromTable: Cube[] | null = null;
-    if (method !== 'heuristic' && nvars <= TABLE_VARS) {
-        // Half the budget, so that a search cut short by time (small keystroke budgets) leaves
-        // the heuristic time to run.
-        const tableDeadline = method === 'exact' ? deadline : start + Math.max(1, budget * 0.5);
-        const outcome = exactFromTable(onCubes, dcCubes, nvars, { maxPrimes, maxRows, deadline: tableDeadline, maxWork: exactWork });
-        if (outcome !== null) {
+    const tabled = method !== 'heuristic' && nvars <= TABLE_VARS;
+    if (tabled) {
+        const tableWork = method === 'exact' ? Infinity
+            : options.exactWork ?? Math.min(fullWork, Math.max(TABLE_MIN_WORK, budget * WORK_PER_BUDGET_MS));
+        const tableDeadline = method === 'exact' ? deadline : start + Math.max(TABLE_MIN_MS, budget * 0.5);
+        const outcome = exactFromTable(onCubes, dcCubes, nvars, { maxPrimes, maxRows, deadline: tableDeadline, maxWork: tableWork });
+        if (outcome !== null && cpuNow() < tableDeadline) {
             if (outcome.proven && outcome.cover !== null) return { cover: outcome.cover, exact: true };
-            // Stopped by its work bound, its best cover has beaten the heuristic's on every
+            // Stopped by its full work bound, its best cover has beaten the heuristic's on every
             // suite function measured (scripts/bench-minimize.ts): the heuristic would only add
-            // time. Stopped by the clock, it may be a rough greedy cover: the heuristic runs too.
-            if (outcome.cover !== null && cpuNow() < tableDeadline) return { cover: outcome.cover, exact: false };
+            // time. Stopped by a scaled-down bound, it may be a rough greedy cover: the
+            // heuristic runs too and the cheaper cover wins.
+            if (outcome.cover !== null && tableWork >= fullWork) return { cover: outcome.cover, exact: false };
             fromTable = outcome.cover;
         }
+        // Stopped by the clock (a safety net): its cover is dropped, so that what the clock
+        // allowed never shows in the result; the heuristic's stands alone.
     }
-    // The heuristic gets most of the budget only when exact work is not wanted.
-    const heuristicDeadline = method === 'heuristic' ? deadline : start + Math.max(1, budget * 0.5);
+    // The heuristic gets half the budget of its own (after a table search that may have used
+    // some) unless exact work is not wanted.
+    const heuristicDeadline = method === 'heuristic' ? deadline : cpuNow() + Math.max(1, budget * 0.5);
     const h = espressoHeuristic(onCubes, dcCubes, nvars, { deadline: heuristicDeadline });
     let cover = h.cover;
     if (method === 'heuristic') return { cover, exact: false };
@@ -131,7 +150,7 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
         && allPrime(cover, h.target.off, nvars)) return { cover, exact: true };
     if (fromTable !== null && cheaper(coverCost(fromTable, nvars), coverCost(cover, nvars))) cover = fromTable;
     // The table search ran (out of time, or past the prime limit): the cube path would not do better.
-    if (nvars <= TABLE_VARS && method !== 'exact') return { cover, exact: false };
+    if (tabled && method !== 'exact') return { cover, exact: false };
     const hc = coverCost(cover, nvars);
     const outcome = exactCover(onCubes, h.target.care, nvars, hc, {
         maxPrimes,

@@ -6,7 +6,8 @@
  * fit one map; 5 and 6 variables are drawn as 2 or 4 layers of 4×4, the layers themselves in
  * Gray order of the leading variables.
  */
-import { type Cube, FREE, ONE, getVar } from '../boolean/cube.js';
+import { type Cube, FREE, ONE, ZERO, getVar, setVarInPlace, universe } from '../boolean/cube.js';
+import { coverHasCube } from '../boolean/espresso/unate.js';
 import type { Cover } from '../boolean/cover.js';
 import { type EquationVariables, printOrder, productText } from './equation-text.js';
 
@@ -59,6 +60,13 @@ function bitOf(value: number, k: number, width: number): 0 | 1 {
     return ((value >>> (width - 1 - k)) & 1) === 1 ? 1 : 0;
 }
 
+/** The cube of a cell: the drawn variables fixed, the others free. */
+function cellCube(assignment: ReadonlyMap<number, 0 | 1>, nvars: number): Cube {
+    const c = universe(nvars);
+    for (const [v, bit] of assignment) setVarInPlace(c, v, bit === 1 ? ONE : ZERO);
+    return c;
+}
+
 function cubeHoldsPartial(cube: Cube, assignment: ReadonlyMap<number, 0 | 1>): boolean {
     for (const [v, bit] of assignment) {
         const field = getVar(cube, v);
@@ -73,6 +81,13 @@ export interface KarnaughOptions {
     readonly dc?: Cover;
     /** The products to mark; defaults to the ON cover itself. */
     readonly groups?: Cover;
+    /**
+     * The covers whose variables the map draws (default: ON, DC and the groups). With the
+     * minimized cover alone the map stays small; a cell then stands for every completion of
+     * the variables not drawn: 1 when it holds an ON minterm, `-` when all of it is don't-care,
+     * else 0 (a correct cover, independent of those variables, is 0 on such a cell).
+     */
+    readonly drawn?: readonly Cover[];
 }
 
 /**
@@ -84,7 +99,7 @@ export function karnaughMap(on: Cover, vars: EquationVariables, options: Karnaug
     const nvars = vars.variables.length;
     const dc = options.dc ?? [];
     const groups = [...(options.groups ?? on)];
-    const support = supportOf([on, dc, groups], nvars);
+    const support = supportOf(options.drawn ?? [on, dc, groups], nvars);
     if (support.size === 0 || support.size > KMAP_MAX_VARIABLES) return undefined;
     const mapVariables = printOrder(vars).filter((v) => support.has(v));
     const n = mapVariables.length;
@@ -106,7 +121,7 @@ export function karnaughMap(on: Cover, vars: EquationVariables, options: Karnaug
                 rowVariables.forEach((v, k) => assignment.set(v, bitOf(rowValue, k, rowCount)));
                 columnVariables.forEach((v, k) => assignment.set(v, bitOf(columnValue, k, columnVariables.length)));
                 const isOn = on.some((c) => cubeHoldsPartial(c, assignment));
-                const isDc = !isOn && dc.some((c) => cubeHoldsPartial(c, assignment));
+                const isDc = !isOn && coverHasCube(dc as Cube[], cellCube(assignment, nvars), nvars);
                 const covering: number[] = [];
                 groups.forEach((g, i) => { if (cubeHoldsPartial(g, assignment)) covering.push(i); });
                 row.push({ bits: mapVariables.map((v) => assignment.get(v)!), value: isOn ? 1 : isDc ? '-' : 0, groups: covering });

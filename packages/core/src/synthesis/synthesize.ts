@@ -357,8 +357,9 @@ export function synthesizeWithAssignment(ctx: SynthesisContext, assignment: Stat
             onOf.set(spec.name, onCover);
             dcOf.set(spec.name, dcCover);
         }
+        const sets = structured ? {} : { onSet: onOf.get(spec.name), dontCare: dcOf.get(spec.name) };
         equations.push({
-            name: spec.name, role: spec.role, stateBit: spec.stateBit, output: spec.output, outputBit: spec.outputBit, cover, exact,
+            name: spec.name, role: spec.role, stateBit: spec.stateBit, output: spec.output, outputBit: spec.outputBit, cover, exact, ...sets,
         });
     }
 

@@ -21,6 +21,12 @@ export interface Equation {
     readonly cover: readonly Cube[];
     /** True when the minimizer proved this cover minimal. */
     readonly exact: boolean;
+    /**
+     * The ON-set and don't-care set the minimizer was given (over the same variables), for
+     * Karnaugh maps; absent for one-hot equations built from their hot-bit structure.
+     */
+    readonly onSet?: readonly Cube[];
+    readonly dontCare?: readonly Cube[];
 }
 
 export interface Cost {

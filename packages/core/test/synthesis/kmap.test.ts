@@ -6,7 +6,9 @@
 // wrap-around included, differ in exactly one variable.
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { cubeFromString } from '../../src/boolean/cube.js';
+import { cubeFromString, cubeToString } from '../../src/boolean/cube.js';
+import { synthesize } from '../../src/synthesis/run.js';
+import { mulberry32, randomMachine } from '../support/random-machine.js';
 import { karnaughMap, renderKarnaughMap } from '../../src/synthesis/kmap.js';
 import { coverText, restrictToCode } from '../../src/synthesis/equation-text.js';
 
@@ -136,5 +138,46 @@ describe('Karnaugh map', () => {
         expect(karnaughMap([], { variables: ['a'], inputCount: 1 })).toBeUndefined();
         const vars = { variables: ['a', 'b', 'c', 'd', 'e', 'f', 'g'], inputCount: 7 };
         expect(karnaughMap([cubeFromString('0101010')], vars)).toBeUndefined();
+    });
+});
+
+describe('Karnaugh maps of synthesized equations (ON-set and don\'t-cares over the cover\'s variables)', () => {
+    it('every cell agrees with brute force over the variables not drawn; groups cover every 1 and no 0 (80 random machines)', () => {
+        const rng = mulberry32(8_2026);
+        let maps = 0;
+        let dashes = 0;
+        for (let m = 0; m < 80; m++) {
+            const machine = randomMachine(rng, { minStates: 3, maxStates: 6, maxBitInputs: 2, maxBuses: 0 }, `M${m}`);
+            const encoding = (['binary', 'gray', 'johnson'] as const)[m % 3];
+            const r = synthesize(machine, { encoding, flipflop: (['D', 'T', 'JK', 'SR'] as const)[m % 4] });
+            const n = r.variables.length;
+            if (n > 10) continue;
+            const vars = { variables: r.variables, inputCount: r.inputCount };
+            for (const e of r.equations) {
+                if (!e.onSet || e.cover.length === 0) continue;
+                const map = karnaughMap(e.onSet, vars, { dc: e.dontCare ?? [], groups: e.cover, drawn: [e.cover] });
+                if (!map) continue;
+                maps++;
+                const on = e.onSet.map((c) => cubeToString(c, n));
+                const dc = (e.dontCare ?? []).map((c) => cubeToString(c, n));
+                const cover = e.cover.map((c) => cubeToString(c, n));
+                const all = allAssignments(n);
+                for (const layer of map.layers) for (const row of layer.cells) for (const cell of row) {
+                    const inCell = all.filter((bits) => map.mapVariables.every((v, k) => bits[v] === cell.bits[k]));
+                    const anyOn = inCell.some((bits) => pla(on, bits));
+                    const allDc = inCell.every((bits) => pla(dc, bits) && !pla(on, bits));
+                    const expected = anyOn ? 1 : allDc ? '-' : 0;
+                    expect(cell.value, `${machine.name} ${e.name} cell ${cell.bits.join('')}`).toBe(expected);
+                    if (expected === '-') dashes++;
+                    // The cover does not depend on the hidden variables, so its value is the cell's.
+                    const covered = pla(cover, inCell[0]!);
+                    expect(cell.groups.length > 0).toBe(covered);
+                    if (cell.value === 1) expect(covered).toBe(true);
+                    if (cell.value === 0) expect(covered).toBe(false);
+                }
+            }
+        }
+        expect(maps).toBeGreaterThan(100);
+        expect(dashes).toBeGreaterThan(0);
     });
 });

@@ -158,11 +158,12 @@ export function equationsDocument(result: SynthesisResult): string {
     const inexact = result.equations.filter((e) => !e.exact).map((e) => e.name);
     if (inexact.length) lines.push(`Not proven minimal (heuristic): ${inexact.join(', ')}`);
     lines.push('');
-    lines.push(`Karnaugh maps (equations of at most ${KMAP_MAX_VARIABLES} variables; letters mark the chosen products):`);
+    lines.push(`Karnaugh maps (equations of at most ${KMAP_MAX_VARIABLES} variables; letters mark the chosen products, - marks don't-cares):`);
     for (const e of result.equations) {
         const support = supportOf([e.cover], vars.variables.length);
         if (support.size === 0) { lines.push('', `${e.name} = ${coverText(e.cover, vars, 'textbook')} (constant)`); continue; }
-        const map = karnaughMap(e.cover, vars);
+        // The function's ON-set and don't-cares over the cover's variables, the cover's products as groups.
+        const map = e.onSet ? karnaughMap(e.onSet, vars, { dc: e.dontCare ?? [], groups: e.cover, drawn: [e.cover] }) : karnaughMap(e.cover, vars);
         if (!map) { lines.push('', `${e.name}: ${support.size} variables — no map`); continue; }
         lines.push('', `${e.name}:`, renderKarnaughMap(map, vars).trimEnd());
     }

@@ -29,11 +29,6 @@ export interface ExactOutcome {
     readonly proven: boolean;
 }
 
-/** Weight of one product: more than the literals of any cover, so products count first. */
-export function productWeight(nvars: number, maxProducts: number): number {
-    return (nvars + 1) * (maxProducts + 1);
-}
-
 /**
  * Searches for a cover of `on` by primes of `care` cheaper than `upper` (fewer products, or as
  * many with fewer literals), or returns null when the primes or the table exceed the limits.

@@ -5,9 +5,10 @@
  * Each node rebuilds a dense bit table of what is left and applies the classic reductions to
  * a fixed point — essential columns (a row with a single column), row dominance (a row whose
  * columns include another row's is implied) and column dominance (a column covering a subset of
- * another's rows at no lower cost is never needed) — bounds by a maximal independent set of
- * rows (pairwise without common column: each needs its own column), and branches on the
- * columns of a shortest row, excluding earlier siblings' columns.
+ * another's rows at no lower cost is never needed) — bounds the node by Lagrangian relaxation
+ * (mincov-lagrangian.ts), fixes columns by their reduced costs, and branches on the columns of a
+ * shortest row, excluding earlier siblings' columns. An optional limit on the number of columns
+ * serves the second, literal-counting pass of exact minimization (exact.ts).
  */
 import { cpuNow } from './clock.js';
 import { type CoverView, greedyCover, lagrangianBound, roundUpBound } from './mincov-lagrangian.js';

@@ -1,7 +1,7 @@
 /**
  * Two-level minimization entry point (issue 3).
  *
- * Functions of up to TABLE_VARS variables: every prime from the truth table (primes-table.ts),
+ * Functions of up to TABLE_VARS (10) variables: every prime from the truth table (primes-table.ts),
  * every ON minterm a row, and the exact covering search (exact.ts, mincov.ts) from its own
  * greedy cover; when it completes, the cover is proven minimal — fewest products, then fewest
  * literals. Wider functions: the Espresso-style heuristic (espresso/loop.ts) first, then — when
@@ -14,7 +14,7 @@ import { cheaper, coverCost, espressoHeuristic, essentialPrimes } from './espres
 import { singleCubeContainment } from './espresso/unate.js';
 import { dontCaresOutside } from './dont-care.js';
 import { type ExactLimits, type ExactOutcome, exactCover, exactOverTable } from './exact.js';
-import { forEachMinterm, primesFromTable, truthTableOf } from './primes-table.js';
+import { TABLE_VARS, forEachMinterm, functionTables, primesFromTable } from './primes-table.js';
 
 export { minimizeMulti, type MultiFunction, type MultiResult } from './multi-output.js';
 
@@ -54,17 +54,15 @@ const DEFAULT_BUDGET_MS = 2000;
 const DEFAULT_EXACT_WORK = 2_000_000;
 /** Up to SMALL_VARS variables: enough to prove every such function of the suites minimal (the densest needs about 4 million). */
 const SMALL_EXACT_WORK = 64_000_000;
-/** Functions of at most this many variables take the truth-table path (primes-table.ts). */
-const TABLE_VARS = 10;
 /**
- * Table-search work allowed per millisecond of budget. The slowest search measured here does
+ * Exact-search work allowed per millisecond of budget. The slowest search measured here does
  * about 100,000 work units per millisecond warm, 10–20 times less on its first (cold) calls.
  * The default budget (2000 ms) gives 64 million: no cut.
  */
 const WORK_PER_BUDGET_MS = 32_000;
-/** The least work and time a table search gets, however small the budget (see minimize). */
-const TABLE_MIN_WORK = 2_000_000;
-const TABLE_MIN_MS = 200;
+/** The least work and time an exact search gets, however small the budget (see minimize). */
+const MIN_EXACT_WORK = 2_000_000;
+const MIN_EXACT_MS = 200;
 /** Functions of at most this many variables get SMALL_EXACT_WORK. */
 const SMALL_VARS = 8;
 
@@ -74,9 +72,7 @@ function defaultExactWork(nvars: number): number {
 
 /** Primes from the truth table, every ON minterm a row, then the exact search; null past the limits. */
 function exactFromTable(on: readonly Cube[], dc: readonly Cube[], nvars: number, limits: ExactLimits): ExactOutcome | null {
-    const onTable = truthTableOf(on, nvars);
-    const careTable = truthTableOf(dc, nvars);
-    for (let m = 0; m < onTable.length; m++) careTable[m]! |= onTable[m]!;
+    const { on: onTable, care: careTable } = functionTables(on, dc, nvars);
     const primes = primesFromTable(onTable, careTable, nvars, limits.maxPrimes);
     if (primes === null) return null;
     const lists: number[][] = [];
@@ -108,27 +104,28 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
     const maxPrimes = method === 'exact' ? 1_000_000 : options.maxPrimes ?? 4000;
     const maxRows = method === 'exact' ? 10_000_000 : options.maxRows ?? 20000;
     const fullWork = defaultExactWork(nvars);
-    const exactWork = method === 'exact' ? Infinity : options.exactWork ?? fullWork;
-    // Small functions: primes from the truth table and the exact search first, starting from
-    // its own greedy cover. A small budget (the keystroke analyses give 10 ms) scales its work
-    // bound down, to no less than TABLE_MIN_WORK, and its clock is at least TABLE_MIN_MS: the
-    // work bound, not the clock, must end the search, so that the same function gets the same
-    // cover on a fast or a loaded machine, cold or warm — and the same as with the full budget
+    // A small budget (the keystroke analyses give 10 ms) scales the exact search's work bound
+    // down, to no less than MIN_EXACT_WORK, and its clock is at least MIN_EXACT_MS: the work
+    // bound, not the clock, must end the search, so that the same function gets the same cover
+    // on a fast or a loaded machine, cold or warm — and the same as with the full budget
     // whenever the search finishes (the search path does not depend on where it is stopped).
+    // A search the clock cuts anyway is dropped.
+    const exactWork = method === 'exact' ? Infinity
+        : options.exactWork ?? Math.min(fullWork, Math.max(MIN_EXACT_WORK, budget * WORK_PER_BUDGET_MS));
+    // Small functions: primes from the truth table and the exact search first, starting from
+    // its own greedy cover.
     let fromTable: Cube[] | null = null;
     const tabled = method !== 'heuristic' && nvars <= TABLE_VARS;
     if (tabled) {
-        const tableWork = method === 'exact' ? Infinity
-            : options.exactWork ?? Math.min(fullWork, Math.max(TABLE_MIN_WORK, budget * WORK_PER_BUDGET_MS));
-        const tableDeadline = method === 'exact' ? deadline : start + Math.max(TABLE_MIN_MS, budget * 0.5);
-        const outcome = exactFromTable(onCubes, dcCubes, nvars, { maxPrimes, maxRows, deadline: tableDeadline, maxWork: tableWork });
+        const tableDeadline = method === 'exact' ? deadline : start + Math.max(MIN_EXACT_MS, budget * 0.5);
+        const outcome = exactFromTable(onCubes, dcCubes, nvars, { maxPrimes, maxRows, deadline: tableDeadline, maxWork: exactWork });
         if (outcome !== null && cpuNow() < tableDeadline) {
             if (outcome.proven && outcome.cover !== null) return { cover: outcome.cover, exact: true };
             // Stopped by its full work bound, its best cover has beaten the heuristic's on every
             // suite function measured (scripts/bench-minimize.ts): the heuristic would only add
             // time. Stopped by a scaled-down bound, it may be a rough greedy cover: the
             // heuristic runs too and the cheaper cover wins.
-            if (outcome.cover !== null && tableWork >= fullWork) return { cover: outcome.cover, exact: false };
+            if (outcome.cover !== null && exactWork >= fullWork) return { cover: outcome.cover, exact: false };
             fromTable = outcome.cover;
         }
         // Stopped by the clock (a safety net): its cover is dropped, so that what the clock
@@ -152,16 +149,17 @@ export function minimize(on: readonly Cube[], dc: readonly Cube[], nvars: number
     // The table search ran (out of time, or past the prime limit): the cube path would not do better.
     if (tabled && method !== 'exact') return { cover, exact: false };
     const hc = coverCost(cover, nvars);
+    const exactDeadline = method === 'exact' ? deadline : Math.max(deadline, start + MIN_EXACT_MS);
     const outcome = exactCover(onCubes, h.target.care, nvars, hc, {
         maxPrimes,
         maxRows,
-        // The budget is a safety net; in 'auto' the search is bounded by work (deterministic).
-        deadline,
+        // The clock is a safety net; in 'auto' the search is bounded by work (deterministic).
+        deadline: exactDeadline,
         // When even the OFF-set was too large to compute (one-hot style covers), the covering
         // problem is too: a tenth of the work then.
         maxWork: exactWork / (h.target.off === null ? 10 : 1),
     });
-    if (outcome === null) return { cover, exact: false };
+    if (outcome === null || (method !== 'exact' && cpuNow() >= exactDeadline)) return { cover, exact: false };
     if (outcome.cover && cheaper(coverCost(outcome.cover, nvars), hc)) cover = outcome.cover;
     return { cover, exact: outcome.proven };
 }

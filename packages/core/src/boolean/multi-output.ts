@@ -17,7 +17,7 @@ import { irredundant } from './espresso/irredundant.js';
 import { coverHasCube, cubeCofactor, singleCubeContainment } from './espresso/unate.js';
 import { firstMinterm, holeIn, lexicographicCover } from './exact.js';
 import { type MinimizeOptions, minimize } from './minimize.js';
-import { primesFromTable, truthTableOf } from './primes-table.js';
+import { TABLE_VARS, functionTables, primesFromTable } from './primes-table.js';
 
 export interface MultiFunction {
     readonly on: readonly Cube[];
@@ -156,14 +156,9 @@ const MAX_TABLED_FUNCTIONS = 6;
  * so a covering search over them is exact. Null beyond the table size or `limit` primes.
  */
 function multiOutputPrimes(functions: readonly MultiFunction[], nvars: number, limit: number): Cube[] | null {
-    if (nvars > 10 || functions.length > MAX_TABLED_FUNCTIONS) return null;
+    if (nvars > TABLE_VARS || functions.length > MAX_TABLED_FUNCTIONS) return null;
     const size = 1 << nvars;
-    const onTables = functions.map((f) => truthTableOf(f.on, nvars));
-    const careTables = functions.map((f, i) => {
-        const t = truthTableOf(f.dc, nvars);
-        for (let m = 0; m < size; m++) t[m]! |= onTables[i]![m]!;
-        return t;
-    });
+    const tables = functions.map((f) => functionTables(f.on, f.dc, nvars));
     const out: Cube[] = [];
     const seen = new Set<number>();
     const care = new Uint8Array(size);
@@ -173,8 +168,8 @@ function multiOutputPrimes(functions: readonly MultiFunction[], nvars: number, l
         on.fill(0);
         functions.forEach((_, i) => {
             if (!((set >> i) & 1)) return;
-            const c = careTables[i]!;
-            const o = onTables[i]!;
+            const c = tables[i]!.care;
+            const o = tables[i]!.on;
             for (let m = 0; m < size; m++) { care[m]! &= c[m]!; on[m]! |= o[m]!; }
         });
         for (let m = 0; m < size; m++) on[m]! &= care[m]!;

@@ -11,12 +11,22 @@ import { type Cube, wordMask } from './cube.js';
 
 /** Functions of more variables than this are not tabulated (3^12 cubes is 531,441 bytes). */
 export const TABLE_MAX_VARS = 12;
+/** Up to this many variables the minimizer takes primes from the table (3^10 = 59,049 cubes). */
+export const TABLE_VARS = 10;
 
 /** The truth table of a cover over n ≤ 16 variables: byte m is 1 when minterm m lies in it. */
 export function truthTableOf(f: readonly Cube[], nvars: number): Uint8Array {
     const t = new Uint8Array(1 << nvars);
     for (const c of f) forEachMinterm(c, nvars, (m) => { t[m] = 1; });
     return t;
+}
+
+/** The ON table of `on` and the ON ∪ DC table of `on` with `dc`, for primesFromTable. */
+export function functionTables(on: readonly Cube[], dc: readonly Cube[], nvars: number): { on: Uint8Array; care: Uint8Array } {
+    const onTable = truthTableOf(on, nvars);
+    const care = truthTableOf(dc, nvars);
+    for (let m = 0; m < onTable.length; m++) care[m]! |= onTable[m]!;
+    return { on: onTable, care };
 }
 
 /** Calls `visit` with every minterm (bit v = variable v) of a one-word cube. */

@@ -121,7 +121,7 @@ export function karnaughMap(on: Cover, vars: EquationVariables, options: Karnaug
                 rowVariables.forEach((v, k) => assignment.set(v, bitOf(rowValue, k, rowCount)));
                 columnVariables.forEach((v, k) => assignment.set(v, bitOf(columnValue, k, columnVariables.length)));
                 const isOn = on.some((c) => cubeHoldsPartial(c, assignment));
-                const isDc = !isOn && coverHasCube(dc as Cube[], cellCube(assignment, nvars), nvars);
+                const isDc = !isOn && coverHasCube(dc, cellCube(assignment, nvars), nvars);
                 const covering: number[] = [];
                 groups.forEach((g, i) => { if (cubeHoldsPartial(g, assignment)) covering.push(i); });
                 row.push({ bits: mapVariables.map((v) => assignment.get(v)!), value: isOn ? 1 : isDc ? '-' : 0, groups: covering });

@@ -360,15 +360,6 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
                 return;
             }
             view = viewOf(t);
-            if (!Number.isFinite(bestCost)) {
-                // No incumbent yet: a plain greedy cover first, so that the bound has a target.
-                const first = greedyCover(view, new Float64Array(view.colCount));
-                work += first.work;
-                if (chosen.length + first.columns.length <= maxColumns) {
-                    bestCost = acc.cost + first.cost;
-                    best = [...chosen, ...first.columns.map((j) => t!.cols[j]!)];
-                }
-            }
             const u = new Float64Array(view.rowCount);
             for (let i = 0; i < u.length; i++) u[i] = uRow[t.rows[i]!]!;
             const budget = bestCost - acc.cost;
@@ -461,24 +452,9 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
 
     // Without an upper bound, a greedy cover of the whole table first: whatever the work limit,
     // the search then returns a cover.
-    if (!Number.isFinite(bestCost) && maxColumns === Infinity) {
-        const hits = new Int32Array(p.rows.length);
-        const taken: number[] = [];
-        let c = 0;
-        p.rows.forEach((row, r) => {
-            if (hits[r]! > 0 || row.length === 0) return;
-            let pick = row[0]!;
-            let score = Infinity;
-            for (const j of row) {
-                let fresh = 0;
-                for (const q of colRows[j]!) if (hits[q] === 0) fresh++;
-                if (p.cost[j]! / fresh < score) { score = p.cost[j]! / fresh; pick = j; }
-            }
-            taken.push(pick);
-            c += p.cost[pick]!;
-            for (const q of colRows[pick]!) hits[q]!++;
-        });
-        if (p.rows.every((row) => row.length > 0)) { best = taken; bestCost = c; }
+    if (!Number.isFinite(bestCost) && p.rows.every((row) => row.length > 0)) {
+        const first = greedyCover(problemView(p, colRows), new Float64Array(nCols));
+        if (first.columns.length <= maxColumns) { best = first.columns; bestCost = first.cost; }
     }
     const chosenRoot: number[] = [];
     try {
@@ -489,3 +465,16 @@ export function solveCover(p: CoverProblem, upperBound: number, deadline: number
         throw e;
     }
 }
+
+/** The whole problem in compressed form (for the first greedy cover). */
+function problemView(p: CoverProblem, colRows: readonly (readonly number[])[]): CoverView {
+    const colStart = new Int32Array(p.columns + 1);
+    colRows.forEach((rows, j) => { colStart[j + 1] = colStart[j]! + rows.length; });
+    const rowStart = new Int32Array(p.rows.length + 1);
+    p.rows.forEach((cols, i) => { rowStart[i + 1] = rowStart[i]! + cols.length; });
+    return {
+        rowCount: p.rows.length, colCount: p.columns, colStart, rowStart,
+        colRow: Int32Array.from(colRows.flat()), rowCol: Int32Array.from(p.rows.flat()), cost: Float64Array.from(p.cost),
+    };
+}
+

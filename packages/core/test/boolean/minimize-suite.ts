@@ -241,15 +241,11 @@ export interface MipSolver {
 export function mipOptimum(f: SuiteFunction, highs: MipSolver): Optimum {
     const primes = primeStrings(f);
     const table = truthTable(f);
+    const hits = primes.map((p) => { const hit = new Uint8Array(table.length); markCube(hit, p, 1); return hit; });
     const rows: string[] = [];
     for (let m = 0; m < table.length; m++) {
         if (table[m] !== 1) continue;
-        const terms: string[] = [];
-        primes.forEach((p, j) => {
-            const hit = new Uint8Array(table.length);
-            markCube(hit, p, 1);
-            if (hit[m]) terms.push(`x${j}`);
-        });
+        const terms = primes.flatMap((_, j) => (hits[j]![m] ? [`x${j}`] : []));
         rows.push(` r${m}: ${terms.join(' + ')} >= 1`);
     }
     if (rows.length === 0) return { products: 0, literals: 0 };
